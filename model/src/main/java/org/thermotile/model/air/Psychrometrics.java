@@ -29,10 +29,21 @@ public final class Psychrometrics {
      * {@code e_w · b c / (c + t)²}.
      */
     public static double saturationVapourPressureSlopePaK(double tempK) {
-        double t = clampCelsius(tempK - Physical.ZERO_CELSIUS_K);
-        double e = MAGNUS_A_PA * Math.exp(MAGNUS_B * t / (MAGNUS_C_K + t));
+        return saturationVapourPressureSlopePaK(tempK, saturationVapourPressurePa(tempK));
+    }
+
+    /**
+     * d e_w / dT [Pa K⁻¹] given e_w already computed at {@code tempK}: {@code e_w · b c / (c + t)²}.
+     * Lets a solver pay for one exponential per iteration. Zero outside the clamp range, consistent
+     * with the clamped {@link #saturationVapourPressurePa}.
+     */
+    public static double saturationVapourPressureSlopePaK(double tempK, double satVapourPa) {
+        double t = tempK - Physical.ZERO_CELSIUS_K;
+        if (t < -60 || t > 80) {
+            return 0.0;
+        }
         double d = MAGNUS_C_K + t;
-        return e * MAGNUS_B * MAGNUS_C_K / (d * d);
+        return satVapourPa * MAGNUS_B * MAGNUS_C_K / (d * d);
     }
 
     /**
