@@ -6,7 +6,7 @@ import java.util.Arrays;
  * Hourly weather as given by a user (a weather file or a synthetic generator), in SI units, one
  * array element per hour, hours consecutive and evenly spaced by 3600 s.
  *
- * <p>Optional series hold {@code NaN} where the source gave nothing; {@link Forcing#prepare}
+ * <p>Optional series hold {@code NaN} where the source gave nothing; {@link ForcingPreparer#prepare}
  * fills them from published models. Values are taken as instantaneous at their time stamp and
  * interpolated linearly in between.
  */

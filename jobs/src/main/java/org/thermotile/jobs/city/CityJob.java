@@ -1,0 +1,152 @@
+package org.thermotile.jobs.city;
+
+import java.io.IOException;
+import java.io.PrintStream;
+import java.io.UncheckedIOException;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.nio.file.StandardCopyOption;
+import java.util.ArrayList;
+import java.util.Arrays;
+import java.util.Comparator;
+import java.util.List;
+import java.util.stream.Stream;
+import org.apache.spark.api.java.JavaRDD;
+import org.apache.spark.api.java.JavaSparkContext;
+import org.apache.spark.broadcast.Broadcast;
+import org.apache.spark.sql.Dataset;
+import org.apache.spark.sql.Row;
+import org.apache.spark.sql.RowFactory;
+import org.apache.spark.sql.SaveMode;
+import org.apache.spark.sql.SparkSession;
+import org.apache.spark.sql.types.DataTypes;
+import org.apache.spark.sql.types.StructType;
+import org.apache.spark.storage.StorageLevel;
+import org.thermotile.jobs.cli.UserInputException;
+import org.thermotile.jobs.io.raster.GeoTiffWriter;
+import org.thermotile.jobs.io.raster.RasterGrid;
+import org.thermotile.model.constants.Physical;
+import org.thermotile.model.tile.TileSimulation;
+
+/**
+ * The city job: one Spark task per tile, statistics back, maps and tables written, all of it
+ * published by renaming a temporary sibling folder only when everything succeeded.
+ */
+public final class CityJob {
+    private CityJob() {}
+
+    /** The no-data value of every float map. */
+    public static final float MAP_NODATA = -9999f;
+
+    /** What a finished run reports. */
+    public record Summary(Path outDir, long cells, long cellHours, double wallSeconds,
+            double cellHoursPerSecond, double maxClosureResidual, List<String> maps) {
+    }
+
+    /** Options of a run. */
+    public record Options(Path outDir, String master, boolean replace, boolean quiet, int threads) {
+    }
+
+    /** Runs on a session of its own (embedded unless {@code opt.master()} is set), stopped at the end. */
+    public static Summary run(PreparedRun prepared, Options opt, PrintStream console) {
+        return run(null, prepared, opt, console);
+    }
+
+    /** Runs on {@code session} if not null (left running), else on a session of its own. */
+    public static Summary run(SparkSession session, PreparedRun prepared, Options opt, PrintStream console) {
+        long t0 = System.nanoTime();
+        Path out = opt.outDir().toAbsolutePath().normalize();
+        if (Files.exists(out) && !opt.replace()) {
+            throw new UserInputException(out + " already exists. Fix: choose another --out folder, "
+                    + "or add --replace to overwrite it");
+        }
+        Path parent = out.getParent();
+        Path tmp = parent.resolve("." + out.getFileName() + ".partial");
+        try {
+            Files.createDirectories(parent);
+            deleteTree(tmp);
+            Files.createDirectories(tmp);
+            Summary s;
+            if (session != null) {
+                s = execute(session, prepared, tmp, opt, console, t0);
+            } else {
+                try (SparkSession spark = SparkSessions.get(opt.master(), opt.threads())) {
+                    s = execute(spark, prepared, tmp, opt, console, t0);
+                }
+            }
+            if (Files.exists(out)) {
+                deleteTree(out);
+            }
+            Files.move(tmp, out, StandardCopyOption.ATOMIC_MOVE);
+            return new Summary(out, s.cells(), s.cellHours(), s.wallSeconds(), s.cellHoursPerSecond(),
+                    s.maxClosureResidual(), s.maps());
+        } catch (IOException e) {
+            deleteQuietly(tmp);
+            throw new UncheckedIOException(e);
+        } catch (RuntimeException | Error e) {
+            deleteQuietly(tmp);
+            throw e;
+        }
+    }
+
+    private static Summary execute(SparkSession spark, PreparedRun p, Path tmp, Options opt,
+            PrintStream console, long t0) throws IOException {
+        JavaSparkContext jsc = JavaSparkContext.fromSparkContext(spark.sparkContext());
+        Broadcast<TileJobSpec> spec = jsc.broadcast(p.spec());
+        List<TileSpec> tiles = p.tiles();
+        ProgressListener progress = null;
+        if (!opt.quiet()) {
+            double perTile = (double) p.cellHours() / Math.max(1, tiles.size());
+            progress = new ProgressListener(tiles.size(), perTile, console);
+            spark.sparkContext().addSparkListener(progress);
+            console.printf("simulating %d cells × %d hours in %d tiles%n", p.activeCells(),
+                    p.spec().forcing().hours() - 1, tiles.size());
+        }
+        JavaRDD<TileOutput> results = jsc.parallelize(tiles, tiles.size())
+                .map(t -> TileTask.run(t, spec.value()))
+                .persist(StorageLevel.MEMORY_AND_DISK());
+        List<TileOutput> collected = new ArrayList<>(results.collect());
+        if (progress != null) {
+            spark.sparkContext().removeSparkListener(progress);
+        }
+        collected.sort(Comparator.comparingInt(o -> o.tile().index()));
+        double simSeconds = (System.nanoTime() - t0) / 1e9;
+
+        Files.createDirectories(tmp.resolve("maps"));
+        Files.createDirectories(tmp.resolve("tables"));
+        List<String> maps = MapOutputs.write(p, collected, tmp.resolve("maps"));
+        TableOutputs.writeCells(spark, p, results, tmp.resolve("tables/cells"));
+        TableOutputs.writeMaterialHours(spark, p, collected, tmp.resolve("tables/material_hours"));
+        if (p.hourlyEpochSeconds().length > 0) {
+            TableOutputs.writeCellHours(spark, p, results, tmp.resolve("tables/cell_hours"));
+        }
+        results.unpersist(false);
+
+        double maxClosure = collected.stream().mapToDouble(o -> o.result().maxClosureResidual()).max().orElse(0);
+        long cellHours = collected.stream().mapToLong(o -> o.result().cellHours()).sum();
+        double wall = (System.nanoTime() - t0) / 1e9;
+        Summary s = new Summary(tmp, p.activeCells(), cellHours, wall, cellHours / Math.max(simSeconds, 1e-9),
+                maxClosure, maps);
+        Manifest.write(p, s, simSeconds, tmp.resolve("manifest.json"));
+        return s;
+    }
+
+    static void deleteQuietly(Path dir) {
+        try {
+            deleteTree(dir);
+        } catch (IOException ignored) {
+            // best effort: the failure being reported matters more
+        }
+    }
+
+    static void deleteTree(Path dir) throws IOException {
+        if (!Files.exists(dir)) {
+            return;
+        }
+        try (Stream<Path> s = Files.walk(dir)) {
+            for (Path q : s.sorted(Comparator.reverseOrder()).toList()) {
+                Files.delete(q);
+            }
+        }
+    }
+}

@@ -1,0 +1,97 @@
+package org.thermotile.jobs.city;
+
+import com.fasterxml.jackson.databind.ObjectMapper;
+import com.fasterxml.jackson.databind.SerializationFeature;
+import com.fasterxml.jackson.databind.node.ObjectNode;
+import java.io.IOException;
+import java.io.InputStream;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.security.MessageDigest;
+import java.util.HexFormat;
+import java.util.Map;
+
+/**
+ * The run manifest: inputs with their SHA-256, the resolved run file, versions, timings, sizes
+ * and the largest energy-closure residual. Timings are the only fields that differ between two
+ * identical runs; they sit under "timing".
+ */
+final class Manifest {
+    private Manifest() {}
+
+    static void write(PreparedRun p, CityJob.Summary s, double simulateSeconds, Path file) throws IOException {
+        ObjectMapper om = new ObjectMapper().enable(SerializationFeature.INDENT_OUTPUT);
+        ObjectNode root = om.createObjectNode();
+        root.put("format", "thermotile-run-manifest/1");
+        root.put("name", p.run().name());
+        ObjectNode inputs = root.putObject("inputs");
+        for (Map.Entry<String, String> e : p.inputFiles().entrySet()) {
+            ObjectNode i = inputs.putObject(e.getKey());
+            i.put("location", e.getValue());
+            i.put("sha256", sha256(Path.of(e.getValue())));
+        }
+        root.set("run_file", p.run().toTree());
+        ObjectNode v = root.putObject("versions");
+        v.put("thermotile", version());
+        v.put("java", System.getProperty("java.version"));
+        v.put("spark", org.apache.spark.package$.MODULE$.SPARK_VERSION());
+        ObjectNode grid = root.putObject("grid");
+        grid.put("width", p.grid().width());
+        grid.put("height", p.grid().height());
+        grid.put("epsg", p.grid().epsg());
+        grid.put("pixel_m", p.grid().pixelWidth());
+        grid.put("tiles", p.tiles().size());
+        ObjectNode sim = root.putObject("simulation");
+        sim.put("cells", s.cells());
+        sim.put("hours", p.spec().forcing().hours() - 1);
+        sim.put("counted_hours", p.sampleEpochSeconds().length);
+        sim.put("cell_hours", s.cellHours());
+        sim.put("max_closure_residual", s.maxClosureResidual());
+        sim.put("deep_ground_c", p.spec().settings().deepGroundK() - 273.15);
+        ObjectNode mat = sim.putObject("materials");
+        for (int i = 0; i < p.paletteLabels().size(); i++) {
+            mat.put(p.paletteLabels().get(i), p.spec().palette()[i].name());
+        }
+        ObjectNode codes = sim.putObject("land_cover_cells");
+        p.codeCounts().forEach((k, n) -> codes.put(Integer.toString(k), n));
+        var outs = root.putArray("outputs");
+        s.maps().forEach(outs::add);
+        outs.add("tables/cells");
+        outs.add("tables/material_hours");
+        if (p.hourlyEpochSeconds().length > 0) {
+            outs.add("tables/cell_hours");
+        }
+        var notes = root.putArray("notes");
+        p.notes().forEach(notes::add);
+        ObjectNode timing = root.putObject("timing");
+        timing.put("wall_seconds", round(s.wallSeconds()));
+        timing.put("simulate_seconds", round(simulateSeconds));
+        timing.put("cell_hours_per_second", Math.round(s.cellHoursPerSecond()));
+        root.put("caution", "Surface temperature is not air temperature nor a heat-health index. "
+                + "Results are estimates for comparing options; defer to local building codes and "
+                + "licensed professionals.");
+        Files.writeString(file, om.writeValueAsString(root) + "\n");
+    }
+
+    static double round(double v) {
+        return Math.round(v * 1000) / 1000.0;
+    }
+
+    static String version() {
+        String v = Manifest.class.getPackage().getImplementationVersion();
+        return v == null ? "0.1.0-SNAPSHOT" : v;
+    }
+
+    static String sha256(Path f) throws IOException {
+        try (InputStream in = Files.newInputStream(f)) {
+            MessageDigest md = MessageDigest.getInstance("SHA-256");
+            byte[] buf = new byte[1 << 16];
+            for (int n; (n = in.read(buf)) > 0; ) {
+                md.update(buf, 0, n);
+            }
+            return HexFormat.of().formatHex(md.digest());
+        } catch (java.security.NoSuchAlgorithmException e) {
+            throw new IllegalStateException(e);
+        }
+    }
+}

@@ -1,0 +1,39 @@
+package org.thermotile.jobs.city;
+
+import java.util.List;
+import java.util.Map;
+import org.thermotile.jobs.config.RunFile;
+import org.thermotile.jobs.io.raster.RasterGrid;
+
+/**
+ * A run file whose every input has been read and checked: what the driver needs to plan, run and
+ * write a city job. Made by {@link RunPreparer}; nothing has been written yet.
+ *
+ * @param spec          what every tile task gets (broadcast)
+ * @param tiles         the tiles, row-major
+ * @param paletteLabels per palette entry, the material id plus any overrides ("asphalt_aged")
+ * @param codeCounts    land-cover code → cells (nodata excluded)
+ * @param fallbackCodes codes that took the class table's fallback material, with their counts
+ * @param inputFiles    every input file read, for the manifest's hashes (label → location)
+ * @param sampleEpochSeconds time of each sampled (counted) hour
+ * @param hourlyEpochSeconds time of each hour written as an hourly output
+ * @param notes         things worth telling the user (filled weather gaps, fallbacks)
+ */
+public record PreparedRun(RunFile run, RasterGrid grid, TileJobSpec spec, List<TileSpec> tiles,
+        List<String> paletteLabels, Map<Integer, Long> codeCounts, Map<Integer, Long> fallbackCodes,
+        Map<String, String> inputFiles, long[] sampleEpochSeconds, long[] hourlyEpochSeconds,
+        List<String> notes) {
+
+    /** Cells with a material. */
+    public long activeCells() {
+        return codeCounts.entrySet().stream()
+                .filter(e -> e.getKey() >= 0 && e.getKey() < spec.codeToPalette().length
+                        && spec.codeToPalette()[e.getKey()] >= 0)
+                .mapToLong(Map.Entry::getValue).sum();
+    }
+
+    /** Cell-hours to simulate (spin-up included). */
+    public long cellHours() {
+        return activeCells() * Math.max(0, spec.forcing().hours() - 1);
+    }
+}

@@ -1,0 +1,276 @@
+package org.thermotile.jobs.city;
+
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.time.Instant;
+import java.time.LocalDate;
+import java.time.LocalDateTime;
+import java.time.ZoneOffset;
+import java.util.ArrayList;
+import java.util.Arrays;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+import java.util.TreeMap;
+import org.apache.sis.referencing.CRS;
+import org.apache.sis.referencing.CommonCRS;
+import org.apache.sis.geometry.DirectPosition2D;
+import org.opengis.referencing.crs.CoordinateReferenceSystem;
+import org.opengis.referencing.operation.MathTransform;
+import org.thermotile.jobs.cli.UserInputException;
+import org.thermotile.jobs.config.ClassTable;
+import org.thermotile.jobs.config.ClassTableReader;
+import org.thermotile.jobs.config.RunFile;
+import org.thermotile.jobs.io.MaterialsFile;
+import org.thermotile.jobs.io.raster.GeoTiffReader;
+import org.thermotile.jobs.io.raster.RasterGrid;
+import org.thermotile.jobs.io.weather.GapFill;
+import org.thermotile.jobs.io.weather.WeatherCsv;
+import org.thermotile.jobs.io.weather.WeatherRead;
+import org.thermotile.model.balance.Convection;
+import org.thermotile.model.constants.Physical;
+import org.thermotile.model.forcing.Forcing;
+import org.thermotile.model.forcing.ForcingPreparer;
+import org.thermotile.model.forcing.HourlyWeather;
+import org.thermotile.model.forcing.Site;
+import org.thermotile.model.forcing.SyntheticWeather;
+import org.thermotile.model.materials.Material;
+import org.thermotile.model.materials.MaterialLibrary;
+import org.thermotile.model.materials.MaterialOverrides;
+import org.thermotile.model.tile.TileSimulation;
+
+/**
+ * Reads and checks every input of a run file, once, before any Spark work: rasters (grid, CRS,
+ * codes), class table, materials, weather coverage. Writes nothing.
+ */
+public final class RunPreparer {
+    private RunPreparer() {}
+
+    /** Largest land-cover code accepted (16-bit rasters). */
+    static final int MAX_CODE = 65_535;
+
+    public static PreparedRun prepare(RunFile run) {
+        List<String> notes = new ArrayList<>();
+        Map<String, String> inputs = new LinkedHashMap<>();
+        RunFile.Inputs in = run.inputs();
+        Path landCover = localPath(in.landCover(), "inputs.land_cover");
+        inputs.put("land_cover", landCover.toString());
+
+        RasterGrid grid;
+        Double noData;
+        Map<Integer, Long> counts = new TreeMap<>();
+        int tileSize = run.tiling().tileSize();
+        try (GeoTiffReader r = GeoTiffReader.openSingleBand(landCover)) {
+            if (!r.sampleType().isInteger()) {
+                throw new UserInputException(landCover + ": land cover holds " + r.sampleType().label()
+                        + " samples; class codes must be integers. Fix: write the land cover as an "
+                        + "integer raster (e.g. gdal_translate -ot UInt16)");
+            }
+            grid = r.grid();
+            noData = r.noDataValue().isPresent() ? r.noDataValue().getAsDouble() : null;
+            // Scan the codes tile by tile: the check needs every code's cell count.
+            for (TileSpec t : TileSpec.plan(grid.width(), grid.height(), tileSize)) {
+                int[] codes = r.readIntWindow(t.col0(), t.row0(), t.width(), t.height());
+                for (int i = 0; i < codes.length; i++) {
+                    int c = codes[i];
+                    if (noData != null && c == noData) {
+                        continue;
+                    }
+                    if (c < 0 || c > MAX_CODE) {
+                        int row = t.row0() + i / t.width();
+                        int col = t.col0() + i % t.width();
+                        throw new UserInputException(landCover + ": code " + c + " at row " + row
+                                + ", column " + col + " is outside 0…" + MAX_CODE
+                                + ". Fix: use class codes 0…65535, or declare it as the nodata value");
+                    }
+                    counts.merge(c, 1L, Long::sum);
+                }
+            }
+        }
+        if (counts.isEmpty()) {
+            throw new UserInputException(landCover + ": every cell is nodata"
+                    + (noData != null ? " (" + noData + ")" : "")
+                    + ", so there is nothing to simulate. Fix: check the nodata value and the extent");
+        }
+        if (in.heights() != null) {
+            Path heights = localPath(in.heights(), "inputs.heights");
+            inputs.put("heights", heights.toString());
+            try (GeoTiffReader h = GeoTiffReader.openSingleBand(heights)) {
+                grid.differenceFrom(h.grid()).ifPresent(d -> {
+                    throw new UserInputException(heights + ": its grid differs from the land cover's ("
+                            + landCover.getFileName() + "): " + d + ". Fix: resample the heights onto "
+                            + "the land-cover grid (e.g. gdalwarp -te/-tr/-t_srs matching it)");
+                });
+            }
+        }
+        if (in.districts() != null) {
+            Path d = localPath(in.districts(), "inputs.districts");
+            if (!Files.isRegularFile(d)) {
+                throw new UserInputException(d + ": districts file not found. Fix: check inputs.districts");
+            }
+            inputs.put("districts", d.toString());
+        }
+
+        // Materials and classes.
+        Map<String, Material> known = new LinkedHashMap<>(MaterialLibrary.byId());
+        if (in.materials() != null) {
+            Path mf = localPath(in.materials(), "inputs.materials");
+            inputs.put("materials", mf.toString());
+            known.putAll(MaterialsFile.mergeWithLibrary(MaterialsFile.read(mf)));
+        }
+        ClassTable table = ClassTableReader.resolve(in.classes(), known.keySet());
+        if (!in.classesIsBuiltIn()) {
+            inputs.put("classes", in.classes());
+        }
+        Map<Integer, Long> fallback = table.checkCodes(counts);
+        if (!fallback.isEmpty()) {
+            notes.add("codes without a class took the fallback material '" + table.fallback() + "': "
+                    + fallback);
+        }
+        int[] lut = new int[MAX_CODE + 1];
+        Arrays.fill(lut, TileSimulation.NO_MATERIAL);
+        List<Material> palette = new ArrayList<>();
+        List<String> labels = new ArrayList<>();
+        Map<String, Integer> paletteIndex = new LinkedHashMap<>();
+        for (int code : counts.keySet()) {
+            String id = table.materialFor(code);
+            Map<String, Double> ov = new TreeMap<>(table.overridesFor(code));
+            String label = ov.isEmpty() ? id : id + " " + ov;
+            Integer idx = paletteIndex.get(label);
+            if (idx == null) {
+                Material base = MaterialLibrary.get(id, known);
+                Material m = ov.isEmpty() ? base : MaterialOverrides.apply(base, ov);
+                idx = palette.size();
+                palette.add(m);
+                labels.add(label);
+                paletteIndex.put(label, idx);
+            }
+            lut[code] = idx;
+        }
+
+        // Site and weather.
+        double[] centre = centreLatLon(grid, landCover);
+        Site site = run.site().toSite(centre[0], centre[1]);
+        RunFile.Period period = run.period();
+        HourlyWeather weather;
+        ZoneOffset offset;
+        if (run.weather().isSynthetic()) {
+            RunFile.Synthetic syn = run.weather().synthetic();
+            offset = syn.utcOffset();
+            LocalDate first = period.simulationStart().toLocalDate();
+            int days = (int) java.time.temporal.ChronoUnit.DAYS.between(first, period.end().toLocalDate()) + 1;
+            weather = SyntheticWeather.clearSky(site, SyntheticWeather.Spec.withRelativeHumidity(first, days,
+                    offset.getTotalSeconds(), syn.tMinC(), syn.tMaxC(), syn.relHumidityPct() / 100.0, syn.windMs()));
+        } else {
+            Path wf = localPath(run.weather().file(), "weather.file");
+            inputs.put("weather", wf.toString());
+            WeatherRead read;
+            try {
+                read = WeatherCsv.read(wf, run.weather().fillGapsMaxHours() > 0
+                        ? GapFill.linear(run.weather().fillGapsMaxHours()) : GapFill.none());
+            } catch (java.io.IOException e) {
+                throw new UserInputException(wf + ": cannot be read: " + e.getMessage(), e);
+            }
+            notes.addAll(read.notes());
+            weather = read.weather();
+            offset = ZoneOffset.ofTotalSeconds(weather.utcOffsetSeconds);
+        }
+        Instant simStart = period.simulationStart().toInstant(offset);
+        Instant end = period.end().toInstant(offset);
+        HourlyWeather sliced = WeatherCsv.slice(weather,
+                run.weather().isSynthetic() ? "synthetic weather" : run.weather().file(), simStart, end);
+        Forcing forcing = ForcingPreparer.prepare(sliced, site);
+
+        // Hours counted in the statistics and hours written as hourly outputs.
+        long startSec = period.start().toInstant(offset).getEpochSecond();
+        long endSec = end.getEpochSecond();
+        int firstSample = -1;
+        List<Long> samples = new ArrayList<>();
+        List<Integer> hourlyIdx = new ArrayList<>();
+        List<Long> hourlyTimes = new ArrayList<>();
+        for (int h = 1; h < forcing.hours(); h++) {
+            long t = forcing.epochSecond[h];
+            if (t >= startSec && t < endSec) {
+                if (firstSample < 0) {
+                    firstSample = h;
+                }
+                samples.add(t);
+                LocalDate day = LocalDateTime.ofEpochSecond(t, 0, offset).toLocalDate();
+                if (run.outputs().hourlyDays().contains(day)) {
+                    hourlyIdx.add(h);
+                    hourlyTimes.add(t);
+                }
+            }
+        }
+        if (firstSample < 0) {
+            throw new UserInputException(run.source() + ": the period " + period.start() + " … "
+                    + period.end() + " holds no whole hour of the weather. Fix: check period and weather");
+        }
+        // The statistics run from firstSample to the end of the forcing: the slice ends at or after `end`.
+        int lastSample = firstSample + samples.size();
+        Forcing used = lastSample < forcing.hours() ? truncate(forcing, lastSample) : forcing;
+        double deepK = run.physics().deepGroundTempK();
+        if (Double.isNaN(deepK)) {
+            deepK = Arrays.stream(used.airTempK).average().orElseThrow();
+        }
+        RunFile.Convection conv = run.physics().convection();
+        Convection convection = conv.isFixed() ? Convection.fixed(conv.coefficientWm2K()) : Convection.mcAdams();
+        TileSimulation.Settings settings = new TileSimulation.Settings(run.physics().timestepMinutes(),
+                convection, deepK, firstSample, run.outputs().thresholdK(),
+                hourlyIdx.stream().mapToInt(Integer::intValue).toArray());
+        TileJobSpec spec = new TileJobSpec(landCover.toString(), palette.toArray(new Material[0]), lut,
+                used, settings);
+        return new PreparedRun(run, grid, spec, TileSpec.plan(grid.width(), grid.height(), tileSize),
+                List.copyOf(labels), counts, fallback, inputs,
+                samples.stream().mapToLong(Long::longValue).toArray(),
+                hourlyTimes.stream().mapToLong(Long::longValue).toArray(), notes);
+    }
+
+    /** The forcing's first {@code hours} hours. */
+    static Forcing truncate(Forcing f, int hours) {
+        return new Forcing(f.site, Arrays.copyOf(f.epochSecond, hours), f.utcOffsetSeconds,
+                Arrays.copyOf(f.airTempK, hours), Arrays.copyOf(f.specificHumidity, hours),
+                Arrays.copyOf(f.windMs, hours), Arrays.copyOf(f.pressurePa, hours),
+                Arrays.copyOf(f.ghiWm2, hours), Arrays.copyOf(f.beamHorizontalWm2, hours),
+                Arrays.copyOf(f.diffuseHorizontalWm2, hours), Arrays.copyOf(f.skyLongwaveWm2, hours),
+                Arrays.copyOf(f.sunZenithDeg, hours), Arrays.copyOf(f.sunAzimuthDeg, hours));
+    }
+
+    /** A local path from a run-file location (file: URIs accepted). */
+    static Path localPath(String location, String key) {
+        if (location == null) {
+            throw new UserInputException("run file: " + key + " is missing");
+        }
+        if (location.startsWith("file:")) {
+            return Path.of(java.net.URI.create(location));
+        }
+        if (location.matches("^[a-z][a-z0-9+.-]*://.*")) {
+            throw new UserInputException(key + ": '" + location + "' is not a local file; this version "
+                    + "reads local files and file:// URIs only");
+        }
+        return Path.of(location);
+    }
+
+    /** Geographic latitude and longitude [°] of the grid's centre. */
+    static double[] centreLatLon(RasterGrid grid, Path file) {
+        try {
+            CoordinateReferenceSystem crs = CRS.fromWKT(grid.crsWkt());
+            CoordinateReferenceSystem geo = CommonCRS.WGS84.normalizedGeographic();
+            MathTransform mt = CRS.findOperation(crs, geo, null).getMathTransform();
+            double x = grid.originX() + grid.pixelWidth() * grid.width() / 2.0;
+            double y = grid.originY() + grid.pixelHeight() * grid.height() / 2.0;
+            DirectPosition2D p = new DirectPosition2D(x, y);
+            DirectPosition2D q = new DirectPosition2D();
+            mt.transform(p, q);
+            return new double[] {q.getY(), q.getX()};
+        } catch (Exception e) {
+            throw new UserInputException(file + ": cannot place the grid's centre on the Earth from its CRS ("
+                    + e.getMessage() + "). Fix: give site.latitude and site.longitude in the run file", e);
+        }
+    }
+
+    /** Air temperature in °C (for messages). */
+    static double celsius(double k) {
+        return k - Physical.ZERO_CELSIUS_K;
+    }
+}

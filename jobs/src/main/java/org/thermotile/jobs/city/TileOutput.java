@@ -1,0 +1,11 @@
+package org.thermotile.jobs.city;
+
+import org.thermotile.model.tile.TileSimulation;
+
+/**
+ * What one tile task returns: its window, the land-cover code and palette index of each cell,
+ * and the simulated statistics. Small: O(cells of the tile).
+ */
+public record TileOutput(TileSpec tile, int[] codes, int[] paletteIndex, TileSimulation.Result result,
+        double seconds) implements java.io.Serializable {
+}

@@ -1,0 +1,26 @@
+package org.thermotile.jobs.city;
+
+import java.nio.file.Path;
+import org.thermotile.jobs.io.raster.GeoTiffReader;
+import org.thermotile.model.tile.TileSimulation;
+
+/** The work of one Spark task: read the tile's window of the land cover, map it, simulate it. */
+public final class TileTask {
+    private TileTask() {}
+
+    public static TileOutput run(TileSpec tile, TileJobSpec spec) {
+        long t0 = System.nanoTime();
+        int[] codes;
+        try (GeoTiffReader r = GeoTiffReader.openSingleBand(Path.of(spec.landCover()))) {
+            codes = r.readIntWindow(tile.col0(), tile.row0(), tile.width(), tile.height());
+        }
+        int[] idx = new int[codes.length];
+        int[] lut = spec.codeToPalette();
+        for (int i = 0; i < codes.length; i++) {
+            int c = codes[i];
+            idx[i] = (c >= 0 && c < lut.length) ? lut[c] : TileSimulation.NO_MATERIAL;
+        }
+        TileSimulation.Result res = TileSimulation.run(spec.palette(), idx, spec.forcing(), spec.settings());
+        return new TileOutput(tile, codes, idx, res, (System.nanoTime() - t0) / 1e9);
+    }
+}
