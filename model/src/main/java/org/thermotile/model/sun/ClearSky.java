@@ -21,8 +21,8 @@ package org.thermotile.model.sun;
  * GHI  = (DNI cos θ + I_AS) / (1 − r_g r_s),   DHI = GHI − DNI cos θ
  * </pre>
  * The ozone exponent −0.3034 and the structure follow NREL's published spreadsheet implementation of
- * the model (Bird_08_16_2012), against whose tabulated values this class is tested. The model is
- * stated to agree within ±10 % with rigorous radiative-transfer codes.
+ * the model (Bird_08_16_2012), against whose tabulated values this class is tested. That
+ * spreadsheet's notes state agreement within ±10 % with rigorous radiative-transfer codes.
  *
  * <p>Domain: θ &lt; 90° (at or below the horizon every output is 0). The Rayleigh fit
  * exp(−0.0903 M'^0.84 (1 + M' − M'^1.01)) reaches its minimum at M' ≈ 14.09 and rises again beyond

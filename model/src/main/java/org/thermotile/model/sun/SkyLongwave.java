@@ -20,7 +20,8 @@ public final class SkyLongwave {
 
     /**
      * Brutsaert (1975) clear-sky emissivity ε_clr = 1.24 (e_a / T_a)^(1/7) [–], e_a in hPa.
-     * Derived for a standard-atmosphere-like profile; used over roughly −40…45 °C air.
+     * Derived for clear skies from standard-atmosphere profiles of temperature and humidity; e_a and
+     * T_a are screen-level values.
      *
      * @param vapourPressurePa screen-level vapour pressure e_a [Pa], ≥ 0
      * @param airTempK         screen-level air temperature T_a [K], &gt; 0
