@@ -158,8 +158,8 @@ public record ClassTable(String name, String source, String reference, String fa
                         + "that maps it, or one with a 'fallback' material");
             } else {
                 problems.add(source + ": code " + e.getKey() + " (" + cells + " in the land-cover "
-                        + "raster) is not in table '" + name + "'; add a class for it, or declare a "
-                        + "'fallback' material");
+                        + "raster) is not in table '" + name + "'; use a class table that lists it, "
+                        + "or one with a 'fallback' material");
             }
         }
         if (mappedCells == 0) {

@@ -102,7 +102,7 @@ public final class ClassTableReader {
                 throw new IllegalStateException("built-in class table resource " + resource + " is missing");
             }
             String text = new String(in.readAllBytes(), StandardCharsets.UTF_8);
-            return parseYaml(text, "built-in table " + name + " (" + resource.substring(1) + ")", materialIds);
+            return parseYaml(text, name + " (built-in, " + resource.substring(1) + ")", materialIds);
         } catch (IOException e) {
             throw new IllegalStateException("cannot read built-in class table " + resource, e);
         }
@@ -203,7 +203,8 @@ public final class ClassTableReader {
                 if (o != null) {
                     for (Iterator<String> it = o.node.fieldNames(); it.hasNext(); ) {
                         String key = it.next();
-                        Double v = o.number(key, true, "give a number");
+                        Double v = Section.number(doc, o.raw(key), o.child(key), "give a number, e.g. "
+                                + key + ": 0.2");
                         if (v != null && checkOverride(doc::at, o.child(key), key, v)) {
                             overrides.put(key, v);
                         }
@@ -417,9 +418,9 @@ public final class ClassTableReader {
     private static boolean checkOverride(Reporter at, String place, String key, double v) {
         double[] range = ClassTable.OVERRIDE_RANGES.get(key);
         if (range == null) {
-            at.at(place, "'" + key + "' is not a property a class can override"
-                    + Suggest.didYouMean(key, ClassTable.OVERRIDE_KEYS) + "; overridable: "
-                    + String.join(", ", ClassTable.OVERRIDE_KEYS));
+            String hint = Suggest.didYouMean(key, ClassTable.OVERRIDE_KEYS);
+            at.at(place, "'" + key + "' is not a property a class can override" + (hint.isEmpty()
+                    ? "; overridable: " + String.join(", ", ClassTable.OVERRIDE_KEYS) : hint));
             return false;
         }
         if (!(v >= range[0] && v <= range[1])) {
