@@ -125,6 +125,7 @@ public record RunFile(String source, String name, Site site, Inputs inputs, Weat
      * @param synthetic        synthetic clear-sky weather, or null
      */
     public record Weather(String file, int fillGapsMaxHours, Synthetic synthetic) {
+        /** True for synthetic weather, false for a weather file. */
         public boolean isSynthetic() {
             return synthetic != null;
         }
@@ -209,6 +210,7 @@ public record RunFile(String source, String name, Site site, Inputs inputs, Weat
         /** Model name of a fixed coefficient. */
         public static final String FIXED = "fixed";
 
+        /** True for a fixed coefficient, false for a named correlation. */
         public boolean isFixed() {
             return FIXED.equals(model);
         }
@@ -235,6 +237,7 @@ public record RunFile(String source, String name, Site site, Inputs inputs, Weat
             this.key = key;
         }
 
+        /** The name of this map in run files and output file names ("night_min"). */
         public String key() {
             return key;
         }

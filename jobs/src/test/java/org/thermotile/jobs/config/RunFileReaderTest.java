@@ -135,7 +135,7 @@ class RunFileReaderTest {
                 + "physics:\n  convection: 12\n  timestep_minutes: 15\n  deep_ground_temp_c: 14.5\n");
         RunFile.Synthetic s = rf.weather().synthetic();
         assertEquals(new RunFile.Synthetic(19, 34, 45, 2.5, ZoneOffset.ofHours(2)), s);
-        // 0 °C = 273.15 K exactly (SI Brochure, 9th ed., 2019, §2.3.1 via the kelvin definition).
+        // 0 °C = 273.15 K exactly (SI Brochure, 9th ed., 2019, definition of the degree Celsius; from memory).
         assertEquals(292.15, s.tMinK(), 1e-12);
         assertTrue(rf.physics().convection().isFixed());
         assertEquals(12.0, rf.physics().convection().coefficientWm2K());
