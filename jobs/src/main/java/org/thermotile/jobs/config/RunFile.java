@@ -1,0 +1,386 @@
+package org.thermotile.jobs.config;
+
+import com.fasterxml.jackson.core.JsonProcessingException;
+import com.fasterxml.jackson.databind.JsonNode;
+import com.fasterxml.jackson.databind.ObjectMapper;
+import com.fasterxml.jackson.databind.SerializationFeature;
+import com.fasterxml.jackson.databind.node.ArrayNode;
+import com.fasterxml.jackson.databind.node.JsonNodeFactory;
+import com.fasterxml.jackson.databind.node.ObjectNode;
+import com.fasterxml.jackson.dataformat.yaml.YAMLFactory;
+import com.fasterxml.jackson.dataformat.yaml.YAMLGenerator;
+import java.time.Duration;
+import java.time.LocalDate;
+import java.time.LocalDateTime;
+import java.time.ZoneOffset;
+import java.util.Collections;
+import java.util.List;
+import java.util.Map;
+import java.util.Objects;
+import java.util.TreeMap;
+import org.thermotile.model.constants.Physical;
+
+/**
+ * A validated run file: what to simulate, where, when and what to write. Immutable; built only by
+ * {@link RunFileReader}, which checks every value once, so code that receives a {@code RunFile}
+ * need not re-check it.
+ *
+ * <p>Units are those of the run file, named in the fields ({@code tMinC} [°C], {@code windMs}
+ * [m s⁻¹]); the {@code …K()} helpers convert to kelvin for the model. Optional numbers that are
+ * absent are {@code NaN} (documented per field); optional texts are {@code null}.
+ *
+ * @param source   the run file as it was read (absolute, normalised path), for messages and the manifest
+ * @param name     run name, {@code [a-z0-9_-]}, 1–64 characters
+ * @param site     where the city stands (coordinates may be left to the land-cover raster)
+ * @param inputs   input files and tables, paths resolved against the run file's folder
+ * @param weather  hourly weather file or synthetic weather
+ * @param period   local time span simulated and counted
+ * @param physics  numerical and physical options
+ * @param outputs  which maps and hourly grids to write
+ * @param tiling   how the grid is cut into tiles
+ * @param reserved raw sections kept for later features ({@link RunFileReader#RESERVED_KEYS}), by key
+ */
+public record RunFile(String source, String name, Site site, Inputs inputs, Weather weather,
+        Period period, Physics physics, Outputs outputs, Tiling tiling, Map<String, JsonNode> reserved) {
+
+    public RunFile {
+        Objects.requireNonNull(name, "name");
+        Objects.requireNonNull(site, "site");
+        Objects.requireNonNull(inputs, "inputs");
+        Objects.requireNonNull(weather, "weather");
+        Objects.requireNonNull(period, "period");
+        Objects.requireNonNull(physics, "physics");
+        Objects.requireNonNull(outputs, "outputs");
+        Objects.requireNonNull(tiling, "tiling");
+        TreeMap<String, JsonNode> copy = new TreeMap<>();
+        reserved.forEach((k, v) -> copy.put(k, v.deepCopy()));
+        reserved = Collections.unmodifiableMap(copy);
+    }
+
+    /** The raw section {@code key} (a deep copy: Jackson trees are mutable), or null if absent. */
+    public JsonNode reserved(String key) {
+        JsonNode n = reserved.get(key);
+        return n == null ? null : n.deepCopy();
+    }
+
+    @Override
+    public Map<String, JsonNode> reserved() {
+        TreeMap<String, JsonNode> copy = new TreeMap<>();
+        reserved.forEach((k, v) -> copy.put(k, v.deepCopy()));
+        return Collections.unmodifiableMap(copy);
+    }
+
+    /**
+     * Site of the simulation.
+     *
+     * @param latitudeDeg  geodetic latitude [°], north positive, −90…90; NaN = take the centre of
+     *                     the land-cover raster
+     * @param longitudeDeg longitude [°], east positive, −180…180; NaN together with latitude
+     * @param elevationM   height above mean sea level [m]; 0 when not given
+     */
+    public record Site(double latitudeDeg, double longitudeDeg, double elevationM) {
+        /** True when the run file gives latitude and longitude. */
+        public boolean hasCoordinates() {
+            return !Double.isNaN(latitudeDeg);
+        }
+
+        /**
+         * The model's site, with the raster centre used when the run file gives no coordinates.
+         *
+         * @param centreLatDeg latitude of the land-cover raster's centre [°]
+         * @param centreLonDeg longitude of the land-cover raster's centre [°]
+         */
+        public org.thermotile.model.forcing.Site toSite(double centreLatDeg, double centreLonDeg) {
+            return hasCoordinates()
+                    ? new org.thermotile.model.forcing.Site(latitudeDeg, longitudeDeg, elevationM)
+                    : new org.thermotile.model.forcing.Site(centreLatDeg, centreLonDeg, elevationM);
+        }
+    }
+
+    /**
+     * Input locations. Each is an absolute, normalised local path, or a URI kept as written
+     * ({@code file:///…}, {@code hdfs://…}); existence is checked by the run check, not here.
+     *
+     * @param landCover land-cover class raster (GeoTIFF)
+     * @param classes   a built-in class table name ({@link ClassTableReader#BUILT_IN}) or the
+     *                  location of a class table (.yaml, .yml or .csv)
+     * @param materials user materials file, or null
+     * @param heights   building/tree height raster, or null
+     * @param districts district polygons (GeoJSON), or null
+     */
+    public record Inputs(String landCover, String classes, String materials, String heights,
+            String districts) {
+        /** True when {@link #classes()} names a built-in table rather than a file. */
+        public boolean classesIsBuiltIn() {
+            return ClassTableReader.BUILT_IN.contains(classes);
+        }
+    }
+
+    /**
+     * Weather: exactly one of {@code file} and {@code synthetic} is non-null.
+     *
+     * @param file             hourly weather CSV location, or null
+     * @param fillGapsMaxHours longest run of missing hours [h] the weather reader may fill by
+     *                         interpolation; 0 (the default) means any gap is an error
+     * @param synthetic        synthetic clear-sky weather, or null
+     */
+    public record Weather(String file, int fillGapsMaxHours, Synthetic synthetic) {
+        /** True for synthetic weather, false for a weather file. */
+        public boolean isSynthetic() {
+            return synthetic != null;
+        }
+    }
+
+    /**
+     * Synthetic weather: a daily cycle repeated over the period.
+     *
+     * @param tMinC          daily minimum air temperature [°C]
+     * @param tMaxC          daily maximum air temperature [°C], ≥ tMinC
+     * @param relHumidityPct relative humidity [%], 0…100
+     * @param windMs         wind speed [m s⁻¹], ≥ 0
+     * @param utcOffset      offset of local clock time from UTC, used to place the sun
+     */
+    public record Synthetic(double tMinC, double tMaxC, double relHumidityPct, double windMs,
+            ZoneOffset utcOffset) {
+        /** Daily minimum air temperature [K]. */
+        public double tMinK() {
+            return tMinC + Physical.ZERO_CELSIUS_K;
+        }
+
+        /** Daily maximum air temperature [K]. */
+        public double tMaxK() {
+            return tMaxC + Physical.ZERO_CELSIUS_K;
+        }
+    }
+
+    /**
+     * The local-time span counted in statistics, as a half-open interval {@code [start, end)}
+     * on whole hours. A date {@code start} means its midnight; a date {@code end} is inclusive,
+     * so it becomes the following midnight; a date-time {@code end} is the instant the run stops.
+     *
+     * @param start      first counted instant (local clock time, whole hour)
+     * @param end        end of the counted span, exclusive, after {@code start}
+     * @param spinUpDays days simulated before {@code start} and not counted [d], ≥ 0
+     */
+    public record Period(LocalDateTime start, LocalDateTime end, int spinUpDays) {
+        /** Number of counted hours [h]. */
+        public long hours() {
+            return Duration.between(start, end).toHours();
+        }
+
+        /** The first simulated instant: {@code start} minus the spin-up days. */
+        public LocalDateTime simulationStart() {
+            return start.minusDays(spinUpDays);
+        }
+
+        /** True when the whole local day {@code day} lies inside {@code [start, end)}. */
+        public boolean containsDay(LocalDate day) {
+            return !day.atStartOfDay().isBefore(start) && !day.plusDays(1).atStartOfDay().isAfter(end);
+        }
+    }
+
+    /**
+     * Numerical and physical options.
+     *
+     * @param timestepMinutes sub-step of the surface balance [min]; divides 60
+     * @param convection      how the convective coefficient h_c is found
+     * @param deepGroundTempC temperature of the deep ground boundary [°C]; NaN = the mean air
+     *                        temperature of the period
+     */
+    public record Physics(int timestepMinutes, Convection convection, double deepGroundTempC) {
+        /** Sub-step [s]. */
+        public int timestepSeconds() {
+            return timestepMinutes * 60;
+        }
+
+        /** Deep ground temperature [K], NaN when the period's mean air temperature is to be used. */
+        public double deepGroundTempK() {
+            return deepGroundTempC + Physical.ZERO_CELSIUS_K;
+        }
+    }
+
+    /**
+     * Convective heat transfer: a named wind correlation, or a fixed coefficient.
+     *
+     * @param model          a correlation name from {@link RunFileReader#CONVECTION_MODELS}, or
+     *                       {@link #FIXED}
+     * @param coefficientWm2K the fixed h_c [W m⁻² K⁻¹] when {@code model} is {@link #FIXED}, else NaN
+     */
+    public record Convection(String model, double coefficientWm2K) {
+        /** Model name of a fixed coefficient. */
+        public static final String FIXED = "fixed";
+
+        /** True for a fixed coefficient, false for a named correlation. */
+        public boolean isFixed() {
+            return FIXED.equals(model);
+        }
+    }
+
+    /** Map products a run can write; {@link #key()} is the name used in run files. */
+    public enum MapKind {
+        /** Highest surface temperature of the period. */
+        PEAK("peak"),
+        /** Mean surface temperature of the period. */
+        MEAN("mean"),
+        /** Lowest night-time surface temperature. */
+        NIGHT_MIN("night_min"),
+        /** Local hour of day at which the peak occurs. */
+        PEAK_HOUR("peak_hour"),
+        /** Sum over hours of the excess of surface temperature above the threshold [K h]. */
+        DEGREE_HOURS("degree_hours"),
+        /** Number of hours with surface temperature above the threshold [h]. */
+        HOURS_ABOVE("hours_above");
+
+        private final String key;
+
+        MapKind(String key) {
+            this.key = key;
+        }
+
+        /** The name of this map in run files and output file names ("night_min"). */
+        public String key() {
+            return key;
+        }
+
+        /** True when this map needs {@code outputs.threshold_c}. */
+        public boolean needsThreshold() {
+            return this == DEGREE_HOURS || this == HOURS_ABOVE;
+        }
+
+        /** The kind named {@code key} in a run file, or null. */
+        public static MapKind fromKey(String key) {
+            for (MapKind k : values()) {
+                if (k.key.equals(key)) {
+                    return k;
+                }
+            }
+            return null;
+        }
+
+        /** All run-file names, in declaration order. */
+        public static List<String> keys() {
+            return java.util.Arrays.stream(values()).map(MapKind::key).toList();
+        }
+    }
+
+    /**
+     * What to write.
+     *
+     * @param maps        map products, in the order given, without repeats, not empty
+     * @param thresholdC  surface temperature threshold for degree-hours and hours above [°C];
+     *                    NaN when not given (then no map needs it)
+     * @param hourlyDays  local days for which full hourly grids are written, sorted; may be empty
+     */
+    public record Outputs(List<MapKind> maps, double thresholdC, List<LocalDate> hourlyDays) {
+        public Outputs {
+            maps = List.copyOf(maps);
+            hourlyDays = List.copyOf(hourlyDays);
+        }
+
+        /** Threshold [K], NaN when not given. */
+        public double thresholdK() {
+            return thresholdC + Physical.ZERO_CELSIUS_K;
+        }
+    }
+
+    /**
+     * Tiling of the grid.
+     *
+     * @param tileSize tile edge [cells]; a multiple of 16 in 16…4096
+     */
+    public record Tiling(int tileSize) {
+    }
+
+    // ---------------------------------------------------------------- resolved form
+
+    /**
+     * The resolved run file as a Jackson tree: the run file's own keys, every default filled in,
+     * paths absolute, dates as ISO-8601 local date-times ({@code period.end} exclusive).
+     * Reading {@link #toYaml()} back with {@link RunFileReader} gives an equal {@code RunFile}
+     * (apart from {@link #source()}). Key order is fixed, so the output is deterministic.
+     */
+    public ObjectNode toTree() {
+        JsonNodeFactory f = JsonNodeFactory.instance;
+        ObjectNode root = f.objectNode();
+        root.put("name", name);
+        ObjectNode s = root.putObject("site");
+        if (site.hasCoordinates()) {
+            s.put("latitude", site.latitudeDeg());
+            s.put("longitude", site.longitudeDeg());
+        }
+        s.put("elevation_m", site.elevationM());
+        ObjectNode in = root.putObject("inputs");
+        in.put("land_cover", inputs.landCover());
+        in.put("classes", inputs.classes());
+        putIfSet(in, "materials", inputs.materials());
+        putIfSet(in, "heights", inputs.heights());
+        putIfSet(in, "districts", inputs.districts());
+        ObjectNode w = root.putObject("weather");
+        if (weather.isSynthetic()) {
+            Synthetic sy = weather.synthetic();
+            ObjectNode so = w.putObject("synthetic");
+            so.put("t_min_c", sy.tMinC());
+            so.put("t_max_c", sy.tMaxC());
+            so.put("rel_humidity_pct", sy.relHumidityPct());
+            so.put("wind_ms", sy.windMs());
+            so.put("utc_offset", sy.utcOffset().getId());
+        } else {
+            w.put("file", weather.file());
+            w.put("fill_gaps_max_hours", weather.fillGapsMaxHours());
+        }
+        ObjectNode pe = root.putObject("period");
+        pe.put("start", period.start().toString());
+        pe.put("end", period.end().toString());
+        pe.put("spin_up_days", period.spinUpDays());
+        ObjectNode ph = root.putObject("physics");
+        ph.put("timestep_minutes", physics.timestepMinutes());
+        if (physics.convection().isFixed()) {
+            ph.put("convection", physics.convection().coefficientWm2K());
+        } else {
+            ph.put("convection", physics.convection().model());
+        }
+        if (Double.isNaN(physics.deepGroundTempC())) {
+            ph.putNull("deep_ground_temp_c");
+        } else {
+            ph.put("deep_ground_temp_c", physics.deepGroundTempC());
+        }
+        ObjectNode out = root.putObject("outputs");
+        ArrayNode maps = out.putArray("maps");
+        outputs.maps().forEach(m -> maps.add(m.key()));
+        if (!Double.isNaN(outputs.thresholdC())) {
+            out.put("threshold_c", outputs.thresholdC());
+        }
+        ArrayNode days = out.putArray("hourly_days");
+        outputs.hourlyDays().forEach(d -> days.add(d.toString()));
+        root.putObject("tiling").put("tile_size", tiling.tileSize());
+        reserved.forEach((k, v) -> root.set(k, v.deepCopy()));
+        return root;
+    }
+
+    private static void putIfSet(ObjectNode o, String key, String value) {
+        if (value != null) {
+            o.put(key, value);
+        }
+    }
+
+    /** The resolved form ({@link #toTree()}) as YAML, a valid run file in itself. */
+    public String toYaml() {
+        YAMLFactory yf = YAMLFactory.builder()
+                .disable(YAMLGenerator.Feature.WRITE_DOC_START_MARKER)
+                .build();
+        return write(new ObjectMapper(yf));
+    }
+
+    /** The resolved form ({@link #toTree()}) as indented JSON, for the run manifest. */
+    public String toJson() {
+        return write(new ObjectMapper().enable(SerializationFeature.INDENT_OUTPUT));
+    }
+
+    private String write(ObjectMapper mapper) {
+        try {
+            return mapper.writeValueAsString(toTree());
+        } catch (JsonProcessingException e) {
+            throw new IllegalStateException("cannot write a Jackson tree we built ourselves", e);
+        }
+    }
+}

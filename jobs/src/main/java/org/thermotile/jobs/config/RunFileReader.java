@@ -1,0 +1,515 @@
+package org.thermotile.jobs.config;
+
+import com.fasterxml.jackson.databind.JsonNode;
+import java.io.IOException;
+import java.net.URI;
+import java.net.URISyntaxException;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.InvalidPathException;
+import java.nio.file.NoSuchFileException;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.time.DateTimeException;
+import java.time.LocalDate;
+import java.time.LocalDateTime;
+import java.time.ZoneOffset;
+import java.time.format.DateTimeParseException;
+import java.util.ArrayList;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Locale;
+import java.util.Map;
+import java.util.TreeMap;
+import java.util.TreeSet;
+import java.util.regex.Pattern;
+import org.thermotile.jobs.config.RunFile.Convection;
+import org.thermotile.jobs.config.RunFile.MapKind;
+
+/**
+ * Reads and validates a run file (YAML). Every problem of the file is collected and reported
+ * together in one {@link RunFileException}; each message names the file, the line and column,
+ * the key path ({@code outputs.maps[2]}), the bad value and the fix. A misspelt key at any level
+ * is an error that suggests the closest known key ({@link Suggest}).
+ *
+ * <p>Input paths are resolved against the run file's folder and kept as strings; values with a
+ * URI scheme ({@code file:}, {@code hdfs:}, …) are kept as written. The reader does not open the
+ * inputs: whether they exist and agree is the run check's business.
+ *
+ * <p>Defaults (design choices of this project, not physical constants): {@code site} absent =
+ * raster centre at elevation 0 m; {@code weather.fill_gaps_max_hours} 0; {@code
+ * period.spin_up_days} {@value #DEFAULT_SPIN_UP_DAYS}; {@code physics.timestep_minutes}
+ * {@value #DEFAULT_TIMESTEP_MINUTES}; {@code physics.convection} {@value #DEFAULT_CONVECTION};
+ * {@code physics.deep_ground_temp_c} the period's mean air temperature; {@code outputs.hourly_days}
+ * none; {@code tiling.tile_size} {@value #DEFAULT_TILE_SIZE}.
+ */
+public final class RunFileReader {
+    /** Top-level sections kept as raw trees for later features; accepted without checks. */
+    public static final List<String> RESERVED_KEYS = List.of("scenarios", "sweep", "hotspots", "report");
+    /** Named wind correlations for the convective coefficient. */
+    public static final List<String> CONVECTION_MODELS = List.of("mcadams");
+
+    public static final int DEFAULT_SPIN_UP_DAYS = 2;
+    public static final int DEFAULT_TIMESTEP_MINUTES = 10;
+    public static final String DEFAULT_CONVECTION = "mcadams";
+    public static final int DEFAULT_TILE_SIZE = 256;
+
+    static final List<String> TOP = List.of("name", "site", "inputs", "weather", "period", "physics",
+            "outputs", "tiling");
+    static final List<String> SITE = List.of("latitude", "longitude", "elevation_m");
+    static final List<String> INPUTS = List.of("land_cover", "classes", "materials", "heights", "districts");
+    static final List<String> WEATHER = List.of("file", "fill_gaps_max_hours", "synthetic");
+    static final List<String> SYNTHETIC = List.of("t_min_c", "t_max_c", "rel_humidity_pct", "wind_ms",
+            "utc_offset");
+    static final List<String> PERIOD = List.of("start", "end", "spin_up_days");
+    static final List<String> PHYSICS = List.of("timestep_minutes", "convection", "deep_ground_temp_c");
+    static final List<String> OUTPUTS = List.of("maps", "threshold_c", "hourly_days");
+    static final List<String> TILING = List.of("tile_size");
+
+    /** Which section each key belongs to, for "'tile_size' belongs under 'tiling'". */
+    private static final Map<String, String> HOME = new LinkedHashMap<>();
+
+    static {
+        TOP.forEach(k -> HOME.put(k, "top level"));
+        RESERVED_KEYS.forEach(k -> HOME.put(k, "top level"));
+        SITE.forEach(k -> HOME.put(k, "site"));
+        INPUTS.forEach(k -> HOME.put(k, "inputs"));
+        WEATHER.forEach(k -> HOME.put(k, "weather"));
+        SYNTHETIC.forEach(k -> HOME.put(k, "weather.synthetic"));
+        PERIOD.forEach(k -> HOME.put(k, "period"));
+        PHYSICS.forEach(k -> HOME.put(k, "physics"));
+        OUTPUTS.forEach(k -> HOME.put(k, "outputs"));
+        TILING.forEach(k -> HOME.put(k, "tiling"));
+    }
+
+    private static final Pattern NAME = Pattern.compile("[a-z0-9_-]{1,64}");
+    /** A URI scheme of two or more characters (so that "C:\…" stays a path). */
+    private static final Pattern URI_SCHEME = Pattern.compile("^[A-Za-z][A-Za-z0-9+.-]+:.*");
+
+    private RunFileReader() {
+    }
+
+    /**
+     * Reads and validates the run file at {@code file}.
+     *
+     * @throws RunFileException listing every problem found (unreadable file, YAML syntax, unknown
+     *                          keys, missing keys, wrong types, out-of-range or inconsistent values)
+     */
+    public static RunFile read(Path file) {
+        Path abs = file.toAbsolutePath().normalize();
+        String text;
+        try {
+            text = Files.readString(abs, StandardCharsets.UTF_8);
+        } catch (NoSuchFileException e) {
+            throw new RunFileException(abs.toString(), List.of(abs + ": no such file; check the "
+                    + "path, or write a run file there (see data-samples/riverside/run.yaml)"));
+        } catch (IOException e) {
+            throw new RunFileException(abs.toString(), List.of(abs + ": cannot be read ("
+                    + e + "); check the path and its permissions"));
+        }
+        return parse(text, abs.getParent(), abs.toString());
+    }
+
+    /**
+     * Validates run-file {@code text} as if read from a file named {@code source} in folder
+     * {@code baseDir} (relative input paths resolve against it).
+     *
+     * @throws RunFileException listing every problem found
+     */
+    public static RunFile parse(String text, Path baseDir, String source) {
+        YamlDoc doc = YamlDoc.parse(source, text);
+        RunFile rf = doc.root == null ? null : build(doc, baseDir.toAbsolutePath().normalize(), source);
+        if (doc.hasProblems() || rf == null) {
+            throw new RunFileException(source, doc.problems());
+        }
+        return rf;
+    }
+
+    private static RunFile build(YamlDoc doc, Path baseDir, String source) {
+        Section top = Section.of(doc, doc.root, "");
+        if (top == null) {
+            return null;
+        }
+        top.checkKeys(TOP, RESERVED_KEYS, HOME);
+
+        String name = top.text("name", true, "give the run a name such as 'riverside-hot-week'");
+        if (name != null && !NAME.matcher(name).matches()) {
+            String fixed = name.toLowerCase(Locale.ROOT).replaceAll("[^a-z0-9_-]+", "-");
+            fixed = fixed.length() > 64 ? fixed.substring(0, 64) : fixed;
+            doc.at("name", "'" + name + "' may use only a-z, 0-9, '-' and '_' (1 to 64 characters); "
+                    + "for example '" + fixed + "'");
+        }
+        RunFile.Site site = site(top.section("site", false, ""));
+        RunFile.Inputs inputs = inputs(top.section("inputs", true,
+                "add 'inputs:' with at least land_cover and classes"), baseDir);
+        RunFile.Weather weather = weather(top.section("weather", true,
+                "add 'weather:' with 'file: weather.csv' or 'synthetic: {…}'"), baseDir);
+        RunFile.Period period = period(top.section("period", true,
+                "add 'period:' with start and end dates"));
+        RunFile.Physics physics = physics(top.section("physics", false, ""));
+        RunFile.Outputs outputs = outputs(top.section("outputs", true,
+                "add 'outputs:' with at least 'maps: [peak]'"), period);
+        RunFile.Tiling tiling = tiling(top.section("tiling", false, ""));
+
+        Map<String, JsonNode> reserved = new TreeMap<>();
+        for (String k : RESERVED_KEYS) {
+            if (top.raw(k) != null) {
+                reserved.put(k, top.raw(k));
+            }
+        }
+        if (doc.hasProblems()) {
+            return null;
+        }
+        return new RunFile(source, name, site, inputs, weather, period, physics, outputs, tiling, reserved);
+    }
+
+    // ---------------------------------------------------------------- sections
+
+    private static RunFile.Site site(Section s) {
+        if (s == null) {
+            return new RunFile.Site(Double.NaN, Double.NaN, 0);
+        }
+        s.checkKeys(SITE, List.of(), HOME);
+        Double lat = s.number("latitude", false, "give degrees north, e.g. 45.07");
+        Double lon = s.number("longitude", false, "give degrees east, e.g. 7.68");
+        Double elev = s.number("elevation_m", false, "give metres above sea level, e.g. 240");
+        if (lat != null && !(lat >= -90 && lat <= 90)) {
+            s.doc.at(s.child("latitude"), lat + " is outside -90…90°; give degrees north (south negative)");
+        }
+        if (lon != null && !(lon >= -180 && lon <= 180)) {
+            s.doc.at(s.child("longitude"), lon + " is outside -180…180°; give degrees east (west negative)");
+        }
+        if (s.has("latitude") != s.has("longitude")) {
+            s.doc.at(s.path, "give both latitude and longitude, or neither (then the centre of the "
+                    + "land-cover raster is used)");
+        }
+        if (elev != null && !(elev > -500 && elev < 9000)) {
+            s.doc.at(s.child("elevation_m"), elev + " m is outside -500…9000 m; give metres above sea level");
+        }
+        return new RunFile.Site(lat == null ? Double.NaN : lat, lon == null ? Double.NaN : lon,
+                elev == null ? 0 : elev);
+    }
+
+    private static RunFile.Inputs inputs(Section s, Path baseDir) {
+        if (s == null) {
+            return null;
+        }
+        s.checkKeys(INPUTS, List.of(), HOME);
+        String landCover = location(s, "land_cover", true, "give the land-cover GeoTIFF, e.g. landcover.tif", baseDir);
+        String classes = null;
+        String c = s.text("classes", true, "name a built-in table (" + String.join(" | ",
+                ClassTableReader.BUILT_IN) + ") or give a class table file (.yaml or .csv)");
+        if (c != null) {
+            if (ClassTableReader.BUILT_IN.contains(c)) {
+                classes = c;
+            } else if (!ClassTableReader.hasTableExtension(c)) {
+                s.doc.at(s.child("classes"), "'" + c + "' is neither a built-in table ("
+                        + String.join(" | ", ClassTableReader.BUILT_IN) + ") nor a .yaml, .yml or .csv "
+                        + "class table" + Suggest.didYouMean(c, ClassTableReader.BUILT_IN));
+            } else {
+                classes = resolve(s, "classes", c, baseDir);
+            }
+        }
+        String materials = location(s, "materials", false, "give a materials YAML file", baseDir);
+        String heights = location(s, "heights", false, "give a height GeoTIFF", baseDir);
+        String districts = location(s, "districts", false, "give a GeoJSON file", baseDir);
+        return new RunFile.Inputs(landCover, classes, materials, heights, districts);
+    }
+
+    private static RunFile.Weather weather(Section s, Path baseDir) {
+        if (s == null) {
+            return null;
+        }
+        s.checkKeys(WEATHER, List.of(), HOME);
+        boolean hasFile = s.has("file");
+        boolean hasSynthetic = s.has("synthetic");
+        if (hasFile && hasSynthetic) {
+            s.doc.at(s.path, "gives both 'file' and 'synthetic'; keep one");
+        } else if (!hasFile && !hasSynthetic) {
+            s.doc.at(s.path, "needs 'file: weather.csv' (hourly weather) or 'synthetic: {t_min_c: …, "
+                    + "t_max_c: …, rel_humidity_pct: …, wind_ms: …, utc_offset: \"+02:00\"}'");
+        }
+        String file = location(s, "file", false, "give the hourly weather CSV, e.g. weather.csv", baseDir);
+        Integer gaps = s.integer("fill_gaps_max_hours", false, "give whole hours, e.g. 3");
+        if (gaps != null) {
+            if (gaps < 0 || gaps > 24) {
+                s.doc.at(s.child("fill_gaps_max_hours"), gaps + " is outside 0…24 h; longer gaps need "
+                        + "filling with a method suited to the data before the run");
+            }
+            if (hasSynthetic && !hasFile) {
+                s.doc.at(s.child("fill_gaps_max_hours"), "applies to a weather file only; remove it "
+                        + "(synthetic weather has no gaps)");
+            }
+        }
+        RunFile.Synthetic synthetic = null;
+        Section sy = s.section("synthetic", false, "");
+        if (sy != null) {
+            synthetic = synthetic(sy);
+        }
+        return new RunFile.Weather(file, gaps == null ? 0 : gaps, synthetic);
+    }
+
+    private static RunFile.Synthetic synthetic(Section s) {
+        s.checkKeys(SYNTHETIC, List.of(), HOME);
+        Double tMin = celsius(s, "t_min_c", true, "give the daily minimum air temperature in °C, e.g. 19", -90, 60);
+        Double tMax = celsius(s, "t_max_c", true, "give the daily maximum air temperature in °C, e.g. 34", -90, 60);
+        Double rh = s.number("rel_humidity_pct", true, "give relative humidity in %, e.g. 45");
+        Double wind = s.number("wind_ms", true, "give wind speed in m/s, e.g. 2.5");
+        if (tMin != null && tMax != null && tMin > tMax) {
+            s.doc.at(s.child("t_max_c"), "t_max_c " + tMax + " is below t_min_c " + tMin + "; swap them");
+        }
+        if (rh != null && !(rh >= 0 && rh <= 100)) {
+            s.doc.at(s.child("rel_humidity_pct"), rh + " is outside 0…100 %; give percent, e.g. 45 (not 0.45)");
+        }
+        if (wind != null && !(wind >= 0 && wind < 100)) {
+            s.doc.at(s.child("wind_ms"), wind + " is outside 0…100 m/s; give metres per second (km/h ÷ 3.6)");
+        }
+        ZoneOffset offset = null;
+        JsonNode o = s.raw("utc_offset");
+        if (o == null || o.isNull()) {
+            s.missing("utc_offset", "give the local clock's offset from UTC in quotes, e.g. utc_offset: \"+02:00\"");
+        } else if (!o.isTextual()) {
+            s.doc.at(s.child("utc_offset"), "expected text such as \"+02:00\", got " + YamlDoc.describe(o)
+                    + "; write it in quotes");
+        } else {
+            try {
+                offset = ZoneOffset.of(o.asText().strip());
+            } catch (DateTimeException e) {
+                s.doc.at(s.child("utc_offset"), "'" + o.asText() + "' is not a UTC offset; write "
+                        + "\"+HH:MM\" or \"-HH:MM\" (e.g. \"+02:00\"), or \"Z\" for UTC");
+            }
+        }
+        if (tMin == null || tMax == null || rh == null || wind == null || offset == null) {
+            return null;
+        }
+        return new RunFile.Synthetic(tMin, tMax, rh, wind, offset);
+    }
+
+    private static RunFile.Period period(Section s) {
+        if (s == null) {
+            return null;
+        }
+        s.checkKeys(PERIOD, List.of(), HOME);
+        LocalDateTime start = time(s, "start", false);
+        LocalDateTime end = time(s, "end", true);
+        Integer spin = s.integer("spin_up_days", false, "give whole days, e.g. 2");
+        if (spin != null && (spin < 0 || spin > 365)) {
+            s.doc.at(s.child("spin_up_days"), spin + " is outside 0…365 days; give whole days, e.g. 2");
+        }
+        if (start != null && end != null && !end.isAfter(start)) {
+            s.doc.at(s.child("end"), "end " + s.raw("end").asText() + " is not after start "
+                    + s.raw("start").asText() + "; the end must not come before the start (a date "
+                    + "end is inclusive, a date-time end is the instant the run stops)");
+        }
+        if (start == null || end == null || !end.isAfter(start)) {
+            return null;
+        }
+        return new RunFile.Period(start, end, spin == null ? DEFAULT_SPIN_UP_DAYS : spin);
+    }
+
+    /** A local date (start: its midnight; end: the next midnight) or a local date-time on the hour. */
+    private static LocalDateTime time(Section s, String key, boolean isEnd) {
+        String fix = "write a local date 2026-07-13 or a local date-time 2026-07-13T06:00";
+        JsonNode v = s.raw(key);
+        if (v == null || v.isNull()) {
+            s.missing(key, fix);
+            return null;
+        }
+        if (!v.isTextual()) {
+            s.doc.at(s.child(key), "expected a date, got " + YamlDoc.describe(v) + "; " + fix);
+            return null;
+        }
+        String t = v.asText().strip();
+        try {
+            if (t.length() <= 10) {
+                LocalDate d = LocalDate.parse(t);
+                return isEnd ? d.plusDays(1).atStartOfDay() : d.atStartOfDay();
+            }
+            LocalDateTime dt = LocalDateTime.parse(t.replace(' ', 'T'));
+            if (dt.getMinute() != 0 || dt.getSecond() != 0 || dt.getNano() != 0) {
+                s.doc.at(s.child(key), "'" + t + "' is not on a whole hour; the weather is hourly, "
+                        + "so write e.g. " + dt.withMinute(0).withSecond(0).withNano(0));
+                return null;
+            }
+            return dt;
+        } catch (DateTimeParseException e) {
+            s.doc.at(s.child(key), "'" + t + "' is not a date; " + fix
+                    + " (local clock time, no offset)");
+            return null;
+        }
+    }
+
+    private static RunFile.Physics physics(Section s) {
+        if (s == null) {
+            return new RunFile.Physics(DEFAULT_TIMESTEP_MINUTES,
+                    new Convection(DEFAULT_CONVECTION, Double.NaN), Double.NaN);
+        }
+        s.checkKeys(PHYSICS, List.of(), HOME);
+        Integer step = s.integer("timestep_minutes", false, "give whole minutes that divide 60, e.g. 10");
+        if (step != null && (step < 1 || step > 60 || 60 % step != 0)) {
+            s.doc.at(s.child("timestep_minutes"), step + " does not divide an hour; use one of "
+                    + "1, 2, 3, 4, 5, 6, 10, 12, 15, 20, 30, 60");
+            step = null;
+        }
+        Convection conv = new Convection(DEFAULT_CONVECTION, Double.NaN);
+        JsonNode c = s.raw("convection");
+        String cp = s.child("convection");
+        String fix = "give a correlation name (" + String.join(" | ", CONVECTION_MODELS)
+                + ") or a fixed coefficient in W/(m² K), e.g. 12";
+        if (c != null && !c.isNull()) {
+            if (c.isTextual()) {
+                String name = c.asText().strip();
+                if (CONVECTION_MODELS.contains(name)) {
+                    conv = new Convection(name, Double.NaN);
+                } else if (name.matches("[-+0-9.eE]+")) {
+                    s.doc.at(cp, "'" + name + "' is a number in quotes; write it without quotes for a "
+                            + "fixed coefficient in W/(m² K)");
+                } else {
+                    s.doc.at(cp, "'" + name + "' is not a known correlation" + Suggest.didYouMean(name,
+                            CONVECTION_MODELS) + "; " + fix);
+                }
+            } else {
+                Double h = Section.number(s.doc, c, cp, fix);
+                if (h != null) {
+                    if (!(h > 0 && h <= 100)) {
+                        s.doc.at(cp, h + " W/(m² K) is outside (0, 100]; " + fix);
+                    } else {
+                        conv = new Convection(Convection.FIXED, h);
+                    }
+                }
+            }
+        }
+        Double deep = celsius(s, "deep_ground_temp_c", false,
+                "give °C, e.g. 15, or null for the period's mean air temperature", -60, 60);
+        return new RunFile.Physics(step == null ? DEFAULT_TIMESTEP_MINUTES : step, conv,
+                deep == null ? Double.NaN : deep);
+    }
+
+    private static RunFile.Outputs outputs(Section s, RunFile.Period period) {
+        if (s == null) {
+            return null;
+        }
+        s.checkKeys(OUTPUTS, List.of(), HOME);
+        List<MapKind> maps = new ArrayList<>();
+        String mapFix = "use names from: " + String.join(", ", MapKind.keys());
+        JsonNode list = s.list("maps", true, "list the maps to write, e.g. maps: [peak, mean]; " + mapFix);
+        if (list != null) {
+            if (list.isEmpty()) {
+                s.doc.at(s.child("maps"), "is empty; list at least one map, " + mapFix);
+            }
+            for (int i = 0; i < list.size(); i++) {
+                JsonNode m = list.get(i);
+                String p = s.child("maps") + "[" + i + "]";
+                MapKind k = m.isTextual() ? MapKind.fromKey(m.asText().strip()) : null;
+                if (k == null) {
+                    String word = m.isTextual() ? "'" + m.asText() + "'" : YamlDoc.describe(m);
+                    s.doc.at(p, word + " is not a map name" + (m.isTextual()
+                            ? Suggest.didYouMean(m.asText(), MapKind.keys()) : "") + "; " + mapFix);
+                } else if (maps.contains(k)) {
+                    s.doc.at(p, "'" + k.key() + "' is listed twice; keep one");
+                } else {
+                    maps.add(k);
+                }
+            }
+        }
+        Double threshold = celsius(s, "threshold_c", false,
+                "give the surface temperature threshold in °C, e.g. 45", -100, 150);
+        if (!s.has("threshold_c")) {
+            for (MapKind k : maps) {
+                if (k.needsThreshold()) {
+                    s.missing("threshold_c", "map '" + k.key() + "' counts hours above a surface "
+                            + "temperature threshold; add e.g. threshold_c: 45");
+                    break;
+                }
+            }
+        }
+        TreeSet<LocalDate> days = new TreeSet<>();
+        JsonNode dl = s.list("hourly_days", false, "list local dates, e.g. hourly_days: [2026-07-16], or []");
+        if (dl != null) {
+            for (int i = 0; i < dl.size(); i++) {
+                JsonNode d = dl.get(i);
+                String p = s.child("hourly_days") + "[" + i + "]";
+                LocalDate day = null;
+                try {
+                    day = d.isTextual() ? LocalDate.parse(d.asText().strip()) : null;
+                } catch (DateTimeParseException e) {
+                    day = null;
+                }
+                if (day == null) {
+                    s.doc.at(p, YamlDoc.describe(d) + " is not a date; write a local date such as 2026-07-16");
+                } else if (!days.add(day)) {
+                    s.doc.at(p, day + " is listed twice; keep one");
+                } else if (period != null && !period.containsDay(day)) {
+                    s.doc.at(p, day + " is not a whole day inside the period " + period.start() + " … "
+                            + period.end() + " (end exclusive); pick a day of the period");
+                }
+            }
+        }
+        return new RunFile.Outputs(maps, threshold == null ? Double.NaN : threshold, new ArrayList<>(days));
+    }
+
+    private static RunFile.Tiling tiling(Section s) {
+        if (s == null) {
+            return new RunFile.Tiling(DEFAULT_TILE_SIZE);
+        }
+        s.checkKeys(TILING, List.of(), HOME);
+        Integer size = s.integer("tile_size", false, "give cells per tile edge, e.g. 256");
+        if (size != null && (size < 16 || size > 4096 || size % 16 != 0)) {
+            int near = Math.max(16, Math.min(4096, Math.round(size / 16f) * 16));
+            s.doc.at(s.child("tile_size"), size + " is not a multiple of 16 between 16 and 4096; "
+                    + "use e.g. " + near);
+            size = null;
+        }
+        return new RunFile.Tiling(size == null ? DEFAULT_TILE_SIZE : size);
+    }
+
+    // ---------------------------------------------------------------- values
+
+    /**
+     * A temperature in °C within a plausibility guard {@code [lo, hi]}; values above 200 are
+     * flagged as probably kelvin.
+     */
+    private static Double celsius(Section s, String key, boolean required, String fix, double lo, double hi) {
+        Double t = s.number(key, required, fix);
+        if (t == null) {
+            return null;
+        }
+        if (t > 200) {
+            s.doc.at(s.child(key), t + " looks like kelvin; give °C (K − 273.15)");
+            return null;
+        }
+        if (t < lo || t > hi) {
+            s.doc.at(s.child(key), t + " °C is outside the plausible range " + lo + "…" + hi + " °C; " + fix);
+            return null;
+        }
+        return t;
+    }
+
+    private static String location(Section s, String key, boolean required, String fix, Path baseDir) {
+        String v = s.text(key, required, fix);
+        return v == null ? null : resolve(s, key, v, baseDir);
+    }
+
+    /**
+     * A URI (scheme of two or more letters) as written; a path made absolute against
+     * {@code baseDir} and normalised.
+     */
+    private static String resolve(Section s, String key, String value, Path baseDir) {
+        if (URI_SCHEME.matcher(value).matches()) {
+            try {
+                new URI(value);
+                return value;
+            } catch (URISyntaxException e) {
+                s.doc.at(s.child(key), "'" + value + "' is not a valid URI (" + e.getReason()
+                        + "); encode spaces as %20, or give a plain path");
+                return null;
+            }
+        }
+        try {
+            Path p = Path.of(value);
+            return (p.isAbsolute() ? p : baseDir.resolve(p)).normalize().toString();
+        } catch (InvalidPathException e) {
+            s.doc.at(s.child(key), "'" + value + "' is not a valid path (" + e.getReason() + ")");
+            return null;
+        }
+    }
+}
