@@ -139,7 +139,8 @@ public final class RunPreparer {
             Integer idx = paletteIndex.get(label);
             if (idx == null) {
                 Material base = MaterialLibrary.get(id, known);
-                Material m = ov.isEmpty() ? base : MaterialOverrides.apply(base, ov);
+                Material m = ov.isEmpty() ? base : MaterialOverrides.apply(base, ov,
+                        "class table " + table.name() + ", code " + code);
                 idx = palette.size();
                 palette.add(m);
                 labels.add(label);

@@ -10,7 +10,8 @@ import picocli.CommandLine.Command;
                 "Surface temperature is not air temperature nor a heat-health index; results are "
                         + "estimates for comparing options. Defer to local building codes and "
                         + "licensed professionals for roofing, structural and health decisions."},
-        subcommands = {MaterialsCommand.class, PointCommand.class, RateCommand.class,
+        subcommands = {RunCommand.class, CheckCommand.class, DemoCommand.class, PointCommand.class,
+                RateCommand.class, MaterialsCommand.class,
                 CommandLine.HelpCommand.class},
         exitCodeListHeading = "%nExit codes:%n",
         exitCodeList = {"0:done", "1:the run failed (see the message)",
@@ -51,6 +52,8 @@ public final class Main {
 
     static boolean isUserError(Throwable ex) {
         return ex instanceof UserInputException || ex instanceof IllegalArgumentException
+                || ex instanceof org.thermotile.jobs.config.ConfigException
+                || ex instanceof org.thermotile.jobs.io.raster.RasterFileException
                 || ex instanceof java.io.FileNotFoundException
                 || ex instanceof java.nio.file.NoSuchFileException;
     }

@@ -1,0 +1,45 @@
+package org.thermotile.jobs.cli;
+
+import java.io.PrintWriter;
+import java.nio.file.Path;
+import java.util.Locale;
+import java.util.concurrent.Callable;
+import org.thermotile.jobs.city.PreparedRun;
+import org.thermotile.jobs.city.RunPreparer;
+import org.thermotile.jobs.config.RunFile;
+import org.thermotile.jobs.config.RunFileReader;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Model.CommandSpec;
+import picocli.CommandLine.Parameters;
+import picocli.CommandLine.Spec;
+
+/** {@code thermotile check}: validates a run file and every input it names; writes nothing. */
+@Command(name = "check", mixinStandardHelpOptions = true,
+        description = "Checks a run file and every input it names (rasters, class table, materials, "
+                + "weather coverage) and prints what a run would do. Writes nothing.")
+final class CheckCommand implements Callable<Integer> {
+    @Spec
+    CommandSpec spec;
+
+    @Parameters(index = "0", paramLabel = "RUNFILE")
+    Path runFile;
+
+    @Override
+    public Integer call() {
+        RunFile run = RunFileReader.read(runFile);
+        PreparedRun p = RunPreparer.prepare(run);
+        PrintWriter out = spec.commandLine().getOut();
+        out.printf(Locale.ROOT, "%s: ok%n", runFile);
+        out.printf(Locale.ROOT, "  grid %d × %d cells of %.2f m, EPSG:%d, %d tiles of %d%n", p.grid().width(),
+                p.grid().height(), p.grid().pixelWidth(), p.grid().epsg(), p.tiles().size(),
+                run.tiling().tileSize());
+        out.printf(Locale.ROOT, "  %d cells with a material; land-cover codes and cells: %s%n", p.activeCells(),
+                p.codeCounts());
+        out.printf(Locale.ROOT, "  materials: %s%n", String.join(", ", p.paletteLabels()));
+        out.printf(Locale.ROOT, "  %d simulated hours (%d counted), %.3g cell-hours%n",
+                p.spec().forcing().hours() - 1, p.sampleEpochSeconds().length, (double) p.cellHours());
+        p.notes().forEach(n -> out.println("  note: " + n));
+        out.flush();
+        return 0;
+    }
+}

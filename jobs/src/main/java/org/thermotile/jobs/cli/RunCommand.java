@@ -1,0 +1,72 @@
+package org.thermotile.jobs.cli;
+
+import java.io.PrintStream;
+import java.nio.file.Path;
+import java.util.Locale;
+import java.util.concurrent.Callable;
+import org.thermotile.jobs.city.CityJob;
+import org.thermotile.jobs.city.PreparedRun;
+import org.thermotile.jobs.city.RunPreparer;
+import org.thermotile.jobs.config.RunFile;
+import org.thermotile.jobs.config.RunFileReader;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Option;
+import picocli.CommandLine.Parameters;
+
+/** {@code thermotile run}: the city job. */
+@Command(name = "run", mixinStandardHelpOptions = true, sortOptions = false,
+        description = {"Runs a city job from a run file: every cell's surface energy balance through "
+                + "the period, written as GeoTIFF maps, Parquet tables and a manifest.",
+                "Every input is checked first (as 'thermotile check' does); nothing is written unless "
+                        + "the whole run succeeds."})
+final class RunCommand implements Callable<Integer> {
+    @Parameters(index = "0", paramLabel = "RUNFILE", description = "the run file (YAML)")
+    Path runFile;
+
+    @Option(names = "--out", paramLabel = "DIR", description = "output folder (default: runs/<run name>)")
+    Path out;
+
+    @Option(names = "--master", paramLabel = "URL",
+            description = "Spark master, e.g. spark://host:7077 (default: embedded, all cores)")
+    String master;
+
+    @Option(names = "--threads", paramLabel = "N", defaultValue = "0",
+            description = "embedded Spark threads (default: all cores)")
+    int threads;
+
+    @Option(names = "--replace", description = "overwrite an existing output folder")
+    boolean replace;
+
+    @Option(names = "--quiet", description = "no progress line")
+    boolean quiet;
+
+    @Override
+    public Integer call() {
+        RunFile run = RunFileReader.read(runFile);
+        Path dir = out != null ? out : Path.of("runs", run.name());
+        execute(run, dir, master, threads, replace, quiet, System.out);
+        return 0;
+    }
+
+    static CityJob.Summary execute(RunFile run, Path dir, String master, int threads, boolean replace,
+            boolean quiet, PrintStream console) {
+        PreparedRun p = RunPreparer.prepare(run);
+        if (!quiet) {
+            console.printf(Locale.ROOT, "%s: %d × %d cells of %.1f m (EPSG:%d), %d materials, %d counted hours%n",
+                    run.name(), p.grid().width(), p.grid().height(), p.grid().pixelWidth(), p.grid().epsg(),
+                    p.paletteLabels().size(), p.sampleEpochSeconds().length);
+            p.notes().forEach(n -> console.println("note: " + n));
+        }
+        CityJob.Summary s = CityJob.run(p, new CityJob.Options(dir, master, replace, quiet, threads), console);
+        console.printf(Locale.ROOT, "done: %d cells, %.3g cell-hours in %.1f s (%.3g cell-hours/s), "
+                        + "largest closure residual %.1e%n", s.cells(), (double) s.cellHours(), s.wallSeconds(),
+                s.cellHoursPerSecond(), s.maxClosureResidual());
+        console.println("outputs: " + s.outDir());
+        console.println("  maps/      " + String.join(" ", s.maps().stream()
+                .map(m -> m.substring("maps/".length())).toList()));
+        console.println("  tables/    cells, material_hours (Parquet)");
+        console.println("  manifest.json");
+        console.println("Surface temperature is not air temperature nor a heat-health index.");
+        return s;
+    }
+}
