@@ -12,8 +12,10 @@ public final class NameSuggestions {
 
     /**
      * The known name closest to {@code typed}, if it is close enough to be a plausible typo:
-     * distance ≤ max(2, a third of the typed length). Ties go to the earlier name in
-     * {@code known}'s iteration order, so the answer is deterministic.
+     * distance ≤ max(2, a third of the typed length). Failing that, an abbreviation: the shortest
+     * known name that contains all of {@code typed}'s letters in order ("temp_c" → "temperature_c"),
+     * for typed names of 3 letters or more. Ties go to the earlier name in {@code known}'s
+     * iteration order, so the answer is deterministic.
      *
      * @param typed what the user wrote
      * @param known the valid names
@@ -34,7 +36,29 @@ public final class NameSuggestions {
             }
         }
         int limit = Math.max(2, t.length() / 3);
-        return best != null && bestDistance <= limit ? Optional.of(best) : Optional.empty();
+        if (best != null && bestDistance <= limit) {
+            return Optional.of(best);
+        }
+        String abbreviated = null;
+        if (t.length() >= 3) {
+            for (String k : known) {
+                if (isSubsequence(t, k.toLowerCase(java.util.Locale.ROOT))
+                        && (abbreviated == null || k.length() < abbreviated.length())) {
+                    abbreviated = k;
+                }
+            }
+        }
+        return Optional.ofNullable(abbreviated);
+    }
+
+    private static boolean isSubsequence(String small, String big) {
+        int j = 0;
+        for (int i = 0; i < big.length() && j < small.length(); i++) {
+            if (big.charAt(i) == small.charAt(j)) {
+                j++;
+            }
+        }
+        return j == small.length();
     }
 
     /** " Did you mean 'x'?" or "" — ready to append to an error message. */
