@@ -125,7 +125,7 @@ public final class SolarReflectanceIndex {
      *
      * <p>Newton starts at the root of the tangent at T_a; since f is convex and increasing for
      * T &gt; 0, that start is at or above the root and Newton converges monotonically (|ΔT| &lt;
-     * 1e-10 K, usually 3–5 steps). Should it not, bisection on [min(T_a, T_sky), the smaller of
+     * 1e-10 K). Should it not, bisection on [min(T_a, T_sky), the smaller of
      * max(T_a,T_sky) + αI/h_c and (max(T_a,T_sky)⁴ + αI/(εσ))^¼] — f ≤ 0 at the lower end and f ≥ 0
      * at the upper by inspection — finishes the job; failing that an {@link ArithmeticException}.
      *
