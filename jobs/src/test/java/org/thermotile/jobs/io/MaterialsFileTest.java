@@ -17,7 +17,7 @@ import org.thermotile.model.materials.MaterialLibrary;
 class MaterialsFileTest {
 
     private static final String GOOD_YAML = """
-            # materials of the invented city of Vellmar Sands (demo data)
+            # demo materials for an invented city (invented data)
             - id: cool_asphalt
               name: asphalt with reflective seal coat
               base: asphalt_aged
