@@ -29,7 +29,9 @@ public record Material(String id, String name, double albedo, double emissivity,
     public Material {
         Objects.requireNonNull(id, "id");
         layers = List.copyOf(layers);
-        sources = Map.copyOf(sources);
+        Objects.requireNonNull(bottom, "bottom");
+        // Sorted, so that anything printing the sources is deterministic.
+        sources = java.util.Collections.unmodifiableSortedMap(new java.util.TreeMap<>(sources));
         check(id, "albedo", albedo, 0, 1);
         check(id, "emissivity", emissivity, 0, 1);
         check(id, "moisture_availability", moistureAvailability, 0, 1);
