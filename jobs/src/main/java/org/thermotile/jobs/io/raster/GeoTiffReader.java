@@ -91,7 +91,7 @@ public final class GeoTiffReader implements AutoCloseable {
         try {
             store = new GeoTiffStore(new GeoTiffStoreProvider(), new StorageConnector(file));
         } catch (DataStoreException | RuntimeException e) {
-            throw new RasterFileException(file, "cannot be opened as a GeoTIFF: " + e.getMessage(),
+            throw new RasterFileException(file, "cannot be opened as a GeoTIFF: " + RasterFileException.describe(e),
                     "check that it is a valid GeoTIFF, e.g. with gdalinfo", e);
         }
         store.addListener(WarningEvent.class, e -> warnings.add(e.getDescription().getMessage()));
@@ -107,7 +107,7 @@ public final class GeoTiffReader implements AutoCloseable {
             if (e instanceof RasterFileException r) {
                 throw r;
             }
-            throw new RasterFileException(file, "its georeferencing cannot be read: " + e.getMessage() + warningText(),
+            throw new RasterFileException(file, "its georeferencing cannot be read: " + RasterFileException.describe(e) + warningText(),
                     "check the CRS with gdalinfo; reproject to a WGS 84 / UTM zone with gdalwarp -t_srs EPSG:326xx", e);
         }
         try {
@@ -131,12 +131,12 @@ public final class GeoTiffReader implements AutoCloseable {
         try {
             dir = TiffDirectory.read(file);
         } catch (IOException e) {
-            throw new RasterFileException(file, "cannot be read: " + e, "check the file's permissions", e);
+            throw new RasterFileException(file, "cannot be read: " + RasterFileException.describe(e), "check the file's permissions", e);
         }
         try {
             return new GeoTiffReader(file, dir);
         } catch (IOException e) {
-            throw new RasterFileException(file, "cannot be read: " + e, "check the file's permissions", e);
+            throw new RasterFileException(file, "cannot be read: " + RasterFileException.describe(e), "check the file's permissions", e);
         }
     }
 
@@ -244,7 +244,7 @@ public final class GeoTiffReader implements AutoCloseable {
             return image.getData(new Rectangle(0, 0, width, height));
         } catch (DataStoreException | RuntimeException e) {
             throw new RasterFileException(file, "reading columns " + col0 + "…" + (col0 + width - 1) + ", rows "
-                    + row0 + "…" + (row0 + height - 1) + " failed: " + e + warningText(),
+                    + row0 + "…" + (row0 + height - 1) + " failed: " + RasterFileException.describe(e) + warningText(),
                     "the file is probably damaged or cut short; copy or create it again", e);
         }
     }
@@ -255,7 +255,7 @@ public final class GeoTiffReader implements AutoCloseable {
         try {
             store.close();
         } catch (DataStoreException e) {
-            throw new RasterFileException(file, "cannot be closed: " + e.getMessage(), "", e);
+            throw new RasterFileException(file, "cannot be closed: " + RasterFileException.describe(e), "", e);
         }
     }
 

@@ -217,7 +217,7 @@ public final class GeoTiffWriter {
             crs = SisCrs.crsOf(grid);
         } catch (FactoryException e) {
             throw new RasterFileException(file, "the grid's CRS (" + grid.crsLabel() + ") cannot be built: "
-                    + e.getMessage(), "use a WGS 84 / UTM CRS (EPSG:326xx or 327xx)", e);
+                    + RasterFileException.describe(e), "use a WGS 84 / UTM CRS (EPSG:326xx or 327xx)", e);
         }
         GridGeometry geometry = new GridGeometry(new GridExtent(grid.width(), grid.height()), PixelInCell.CELL_CORNER,
                 MathTransforms.linear(new Matrix3(
@@ -256,7 +256,7 @@ public final class GeoTiffWriter {
                     throw s.original;                        // the caller's data, not the file, is at fault
                 }
             }
-            throw new RasterFileException(file, "could not write the GeoTIFF: " + e.getMessage(),
+            throw new RasterFileException(file, "could not write the GeoTIFF: " + RasterFileException.describe(e),
                     "check that the folder is writable and the disk has free space", e);
         } finally {
             if (!done) {

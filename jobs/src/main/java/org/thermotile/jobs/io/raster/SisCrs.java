@@ -1,8 +1,9 @@
 package org.thermotile.jobs.io.raster;
 
+import java.util.Locale;
 import javax.measure.Unit;
 import org.apache.sis.io.wkt.Convention;
-import org.apache.sis.io.wkt.FormattableObject;
+import org.apache.sis.io.wkt.WKTFormat;
 import org.apache.sis.measure.Units;
 import org.apache.sis.metadata.iso.citation.Citations;
 import org.apache.sis.referencing.CRS;
@@ -20,12 +21,12 @@ final class SisCrs {
 
     private SisCrs() { }
 
-    /** WKT 2 (ISO 19162:2019) of a CRS. */
+    /** WKT 2 (ISO 19162:2019) of a CRS, on one line. */
     static String wkt(CoordinateReferenceSystem crs) {
-        if (crs instanceof FormattableObject f) {
-            return f.toString(Convention.WKT2_2019);
-        }
-        return crs.toWKT();
+        WKTFormat format = new WKTFormat(Locale.ROOT, null);
+        format.setConvention(Convention.WKT2_2019);
+        format.setIndentation(WKTFormat.SINGLE_LINE);
+        return format.format(crs);
     }
 
     /** The EPSG code attached to the CRS, or 0 when it has none. No database look-up. */
