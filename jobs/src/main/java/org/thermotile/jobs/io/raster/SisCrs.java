@@ -23,7 +23,7 @@ final class SisCrs {
 
     /** WKT 2 (ISO 19162:2019) of a CRS, on one line. */
     static String wkt(CoordinateReferenceSystem crs) {
-        WKTFormat format = new WKTFormat(Locale.ROOT, null);
+        WKTFormat format = new WKTFormat(Locale.ROOT, (java.time.ZoneId) null);
         format.setConvention(Convention.WKT2_2019);
         format.setIndentation(WKTFormat.SINGLE_LINE);
         return format.format(crs);
