@@ -122,8 +122,8 @@ public final class CityJob {
         }
         results.unpersist(false);
 
-        double maxClosure = collected.stream().mapToDouble(o -> o.result().maxClosureResidual()).max().orElse(0);
-        long cellHours = collected.stream().mapToLong(o -> o.result().cellHours()).sum();
+        double maxClosure = collected.stream().mapToDouble(o -> o.result().maxClosureResidual).max().orElse(0);
+        long cellHours = collected.stream().mapToLong(o -> o.result().cellHours).sum();
         double wall = (System.nanoTime() - t0) / 1e9;
         Summary s = new Summary(tmp, p.activeCells(), cellHours, wall, cellHours / Math.max(simSeconds, 1e-9),
                 maxClosure, maps);
