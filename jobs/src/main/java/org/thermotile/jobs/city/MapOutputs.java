@@ -14,7 +14,7 @@ final class MapOutputs {
     private MapOutputs() {}
 
     /** File name (without .tif) and the tile array for each map kind. */
-    static Function<TileSimulation.Result, float[]> field(RunFile.MapKind kind) {
+    static Function<TileSimulation.Result, double[]> field(RunFile.MapKind kind) {
         return switch (kind.key()) {
             case "peak" -> r -> r.peakC;
             case "mean" -> r -> r.meanC;
@@ -49,7 +49,7 @@ final class MapOutputs {
                 float[][] bands = new float[idx.size()][];
                 for (int b = 0; b < idx.size(); b++) {
                     int band = idx.get(b);
-                    bands[b] = assemble(grid, tiles, r -> r.hourlyC[band]);
+                    bands[b] = assemble(grid, tiles, r -> toDoubles(r.hourlyC[band]));
                 }
                 String name = "hourly_" + e.getKey() + ".tif";
                 GeoTiffWriter.writeFloatStack(mapsDir.resolve(name), grid, bands, CityJob.MAP_NODATA);
@@ -60,16 +60,24 @@ final class MapOutputs {
     }
 
     /** The whole grid of one field from the tiles, NaN (no material) as the map's no-data value. */
-    static float[] assemble(RasterGrid grid, List<TileOutput> tiles, Function<TileSimulation.Result, float[]> f) {
+    static double[] toDoubles(float[] a) {
+        double[] d = new double[a.length];
+        for (int i = 0; i < a.length; i++) {
+            d[i] = a[i];
+        }
+        return d;
+    }
+
+    static float[] assemble(RasterGrid grid, List<TileOutput> tiles, Function<TileSimulation.Result, double[]> f) {
         float[] full = new float[grid.width() * grid.height()];
         for (TileOutput o : tiles) {
             TileSpec t = o.tile();
-            float[] src = f.apply(o.result());
+            double[] src = f.apply(o.result());
             for (int r = 0; r < t.height(); r++) {
                 int dst = (t.row0() + r) * grid.width() + t.col0();
                 for (int c = 0; c < t.width(); c++) {
-                    float v = src[r * t.width() + c];
-                    full[dst + c] = Float.isNaN(v) ? CityJob.MAP_NODATA : v;
+                    double v = src[r * t.width() + c];
+                    full[dst + c] = Double.isNaN(v) ? CityJob.MAP_NODATA : (float) v;
                 }
             }
         }

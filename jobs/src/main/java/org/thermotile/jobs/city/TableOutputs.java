@@ -34,12 +34,12 @@ final class TableOutputs {
             .add("y", DataTypes.DoubleType, false)
             .add("land_cover", DataTypes.IntegerType, false)
             .add("material", DataTypes.StringType, false)
-            .add("peak_c", DataTypes.FloatType, false)
-            .add("mean_c", DataTypes.FloatType, false)
-            .add("night_min_c", DataTypes.FloatType, true)
+            .add("peak_c", DataTypes.DoubleType, false)
+            .add("mean_c", DataTypes.DoubleType, false)
+            .add("night_min_c", DataTypes.DoubleType, true)
             .add("peak_hour", DataTypes.IntegerType, false)
             .add("hours_above", DataTypes.IntegerType, false)
-            .add("degree_hours", DataTypes.FloatType, false);
+            .add("degree_hours", DataTypes.DoubleType, false);
 
     static final StructType MATERIAL_HOURS = new StructType()
             .add("material", DataTypes.StringType, false)
@@ -69,10 +69,10 @@ final class TableOutputs {
                 }
                 int col = t.col0() + i % t.width();
                 int row = t.row0() + i / t.width();
-                float night = r.nightMinC[i];
+                double night = r.nightMinC[i];
                 out.add(RowFactory.create(col, row, grid.cellCentreX(col), grid.cellCentreY(row),
                         o.codes()[i], labels.get(idx), r.peakC[i], r.meanC[i],
-                        Float.isNaN(night) ? null : night, (int) r.peakHour[i], (int) r.hoursAbove[i],
+                        Double.isNaN(night) ? null : night, (int) r.peakHour[i], (int) r.hoursAbove[i],
                         r.degreeHoursAbove[i]));
             }
             return out.iterator();

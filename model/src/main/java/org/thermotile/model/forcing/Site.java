@@ -7,7 +7,7 @@ package org.thermotile.model.forcing;
  * @param longitudeDeg longitude [°], east positive, in [−180, 180]
  * @param elevationM   height above mean sea level [m]
  */
-public record Site(double latitudeDeg, double longitudeDeg, double elevationM) {
+public record Site(double latitudeDeg, double longitudeDeg, double elevationM) implements java.io.Serializable {
     public Site {
         if (!(latitudeDeg >= -90 && latitudeDeg <= 90)) {
             throw new IllegalArgumentException("latitude " + latitudeDeg + "° is outside −90…90°");

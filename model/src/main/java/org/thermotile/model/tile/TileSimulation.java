@@ -29,16 +29,16 @@ public final class TileSimulation {
         }
     }
 
-    /** Per-cell statistics of a tile, NaN where the cell has no material. */
+    /** Per-cell statistics of a tile (°C, hours, K h), NaN where the cell has no material. */
     public static final class Result implements java.io.Serializable {
         private static final long serialVersionUID = 1L;
         public final int cells;
-        public final float[] peakC;
-        public final float[] meanC;
-        public final float[] nightMinC;
-        public final float[] peakHour;
-        public final float[] hoursAbove;
-        public final float[] degreeHoursAbove;
+        public final double[] peakC;
+        public final double[] meanC;
+        public final double[] nightMinC;
+        public final double[] peakHour;
+        public final double[] hoursAbove;
+        public final double[] degreeHoursAbove;
         /** Surface temperature [°C] at each requested hourly output hour: [hour][cell]. */
         public final float[][] hourlyC;
         /** Σ surface temperature [K] per palette entry and sampled hour: [palette][hour]. */
@@ -52,12 +52,12 @@ public final class TileSimulation {
 
         Result(int cells, int hourly, int palette, int sampled) {
             this.cells = cells;
-            peakC = nanArray(cells);
-            meanC = nanArray(cells);
-            nightMinC = nanArray(cells);
-            peakHour = nanArray(cells);
-            hoursAbove = nanArray(cells);
-            degreeHoursAbove = nanArray(cells);
+            peakC = nanDoubles(cells);
+            meanC = nanDoubles(cells);
+            nightMinC = nanDoubles(cells);
+            peakHour = nanDoubles(cells);
+            hoursAbove = nanDoubles(cells);
+            degreeHoursAbove = nanDoubles(cells);
             hourlyC = new float[hourly][];
             for (int i = 0; i < hourly; i++) {
                 hourlyC[i] = nanArray(cells);
@@ -81,6 +81,12 @@ public final class TileSimulation {
             paletteCells = r.paletteCells;
             maxClosureResidual = closure;
             this.cellHours = cellHours;
+        }
+
+        private static double[] nanDoubles(int n) {
+            double[] a = new double[n];
+            Arrays.fill(a, Double.NaN);
+            return a;
         }
 
         private static float[] nanArray(int n) {
@@ -150,12 +156,12 @@ public final class TileSimulation {
         double maxClosure = 0;
         for (int a = 0; a < active; a++) {
             int c = cellOf[a];
-            out.peakC[c] = (float) (st.peakK(a) - Physical.ZERO_CELSIUS_K);
-            out.meanC[c] = (float) (st.meanK(a) - Physical.ZERO_CELSIUS_K);
-            out.nightMinC[c] = (float) (st.nightMinK(a) - Physical.ZERO_CELSIUS_K);
+            out.peakC[c] = st.peakK(a) - Physical.ZERO_CELSIUS_K;
+            out.meanC[c] = st.meanK(a) - Physical.ZERO_CELSIUS_K;
+            out.nightMinC[c] = st.nightMinK(a) - Physical.ZERO_CELSIUS_K;
             out.peakHour[c] = st.peakLocalHour(a);
             out.hoursAbove[c] = st.hoursAbove(a);
-            out.degreeHoursAbove[c] = (float) st.degreeHoursAbove(a);
+            out.degreeHoursAbove[c] = st.degreeHoursAbove(a);
             maxClosure = Math.max(maxClosure, Math.abs(block.closureResidualFraction(a)));
         }
         long cellHours = (long) active * Math.max(0, forcing.hours() - 1);

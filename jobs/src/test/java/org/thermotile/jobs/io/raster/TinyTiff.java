@@ -18,15 +18,15 @@ import java.util.List;
  * GeoKeyDirectory 34735). Independent of the production writer, so tests can make files it would
  * never make: rotated, without CRS, empty.
  */
-final class TinyTiff {
+public final class TinyTiff {
 
     static final int MODEL_PIXEL_SCALE = 33550;
     static final int MODEL_TIEPOINT = 33922;
-    static final int MODEL_TRANSFORMATION = 34264;
+    public static final int MODEL_TRANSFORMATION = 34264;
     static final int GEO_KEY_DIRECTORY = 34735;
 
     /** One tag; {@code values} is a short[] (SHORT), int[] (LONG), double[] (DOUBLE) or String (ASCII). */
-    record Tag(int tag, Object values) {
+    public record Tag(int tag, Object values) {
         int type() {
             if (values instanceof short[]) return 3;
             if (values instanceof int[]) return 4;
@@ -63,7 +63,7 @@ final class TinyTiff {
     private TinyTiff() { }
 
     /** GeoKeyDirectory for a projected CRS given by EPSG code, pixel-is-area (GeoTIFF 1.0 keys 1024, 1025, 3072). */
-    static Tag projectedKeys(int epsg) {
+    public static Tag projectedKeys(int epsg) {
         return new Tag(GEO_KEY_DIRECTORY, new short[] {1, 1, 0, 3, 1024, 0, 1, 1, 1025, 0, 1, 1, 3072, 0, 1, (short) epsg});
     }
 
@@ -73,7 +73,7 @@ final class TinyTiff {
     }
 
     /** North-up georeferencing: pixel scale and the tie point of the top-left corner. */
-    static List<Tag> northUp(double originX, double originY, double cellM) {
+    public static List<Tag> northUp(double originX, double originY, double cellM) {
         return List.of(new Tag(MODEL_PIXEL_SCALE, new double[] {cellM, cellM, 0}),
                 new Tag(MODEL_TIEPOINT, new double[] {0, 0, 0, originX, originY, 0}));
     }
@@ -81,7 +81,7 @@ final class TinyTiff {
     /**
      * Writes the file: pixels row-major (width·height float32 values), little- or big-endian.
      */
-    static void write(Path file, ByteOrder order, int width, int height, float[] pixels, List<Tag> extra)
+    public static void write(Path file, ByteOrder order, int width, int height, float[] pixels, List<Tag> extra)
             throws IOException {
         int dataBytes = 4 * width * height;
         List<Tag> tags = new ArrayList<>(List.of(

@@ -1,0 +1,180 @@
+package org.thermotile.jobs.city;
+
+import static org.junit.jupiter.api.Assertions.assertArrayEquals;
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertFalse;
+import static org.junit.jupiter.api.Assertions.assertThrows;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import java.io.ByteArrayOutputStream;
+import java.io.PrintStream;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.sql.Connection;
+import java.sql.DriverManager;
+import java.sql.ResultSet;
+import java.sql.Statement;
+import java.util.List;
+import java.util.Map;
+import java.util.TreeMap;
+import java.util.stream.Stream;
+import org.apache.spark.sql.Row;
+import org.apache.spark.sql.SparkSession;
+import org.junit.jupiter.api.AfterAll;
+import org.junit.jupiter.api.BeforeAll;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import org.thermotile.jobs.config.RunFile;
+import org.thermotile.jobs.config.RunFileReader;
+import org.thermotile.jobs.io.raster.GeoTiffReader;
+import org.thermotile.model.balance.SingleSurface;
+import org.thermotile.model.constants.Physical;
+import org.thermotile.model.tile.TileSimulation;
+
+/** The city job end to end on a small invented city, on one shared embedded Spark session. */
+class CityJobTest {
+    static SparkSession spark;
+    @TempDir
+    static Path dir;
+    static Path out256;
+    static PreparedRun prepared;
+
+    @BeforeAll
+    static void runOnce() throws Exception {
+        spark = SparkSessions.get(null, 2);
+        Path rf = CityFixture.write(dir.resolve("in256"), 256, "  hourly_days: [2026-07-15]");
+        prepared = RunPreparer.prepare(RunFileReader.read(rf));
+        out256 = dir.resolve("out256");
+        CityJob.run(spark, prepared, new CityJob.Options(out256, null, false, true, 0), quietConsole());
+    }
+
+    @AfterAll
+    static void stop() {
+        spark.stop();
+    }
+
+    static PrintStream quietConsole() {
+        return new PrintStream(new ByteArrayOutputStream());
+    }
+
+    @Test
+    void writesMapsTablesAndManifestAndNothingElse() {
+        for (String f : List.of("maps/peak.tif", "maps/mean.tif", "maps/night_min.tif", "maps/peak_hour.tif",
+                "maps/degree_hours.tif", "maps/hourly_2026-07-15.tif", "tables/cells", "tables/material_hours",
+                "tables/cell_hours", "manifest.json")) {
+            assertTrue(Files.exists(out256.resolve(f)), f);
+        }
+        assertFalse(Files.exists(dir.resolve(".out256.partial")), "temporary folder removed");
+    }
+
+    /** DuckDB (an independent Parquet reader) sees the same rows and aggregates as Spark. */
+    @Test
+    void duckDbReadsEveryTableWithSparksAggregates() throws Exception {
+        Class.forName("org.duckdb.DuckDBDriver");
+        try (Connection c = DriverManager.getConnection("jdbc:duckdb:"); Statement st = c.createStatement()) {
+            for (String t : List.of("cells", "material_hours", "cell_hours")) {
+                String glob = out256.resolve("tables/" + t).toString() + "/*.parquet";
+                Row spk = spark.read().parquet(out256.resolve("tables/" + t).toString())
+                        .selectExpr("count(*)", t.equals("cells") ? "avg(peak_c)" : t.equals("cell_hours")
+                                ? "avg(surface_c)" : "avg(mean_c)").first();
+                try (ResultSet rs = st.executeQuery("select count(*), avg(" + (t.equals("cells") ? "peak_c"
+                        : t.equals("cell_hours") ? "surface_c" : "mean_c") + ") from read_parquet('" + glob + "')")) {
+                    rs.next();
+                    assertEquals(spk.getLong(0), rs.getLong(1), t + " rows");
+                    assertEquals(spk.getDouble(1), rs.getDouble(2), 1e-9, t + " mean");
+                }
+            }
+            long expectCells = prepared.activeCells();
+            try (ResultSet rs = st.executeQuery("select count(*) from read_parquet('"
+                    + out256.resolve("tables/cells") + "/*.parquet')")) {
+                rs.next();
+                assertEquals(expectCells, rs.getLong(1));
+            }
+        }
+    }
+
+    /** Every map cell equals the Parquet summary's value for the same cell (float32 rounding). */
+    @Test
+    void mapsAgreeWithTheParquetSummary() {
+        Map<Long, Row> byCell = new TreeMap<>();
+        for (Row r : spark.read().parquet(out256.resolve("tables/cells").toString()).collectAsList()) {
+            byCell.put((long) r.getInt(1) * CityFixture.W + r.getInt(0), r);
+        }
+        try (GeoTiffReader peak = GeoTiffReader.openSingleBand(out256.resolve("maps/peak.tif"))) {
+            assertEquals(CityFixture.grid().originX(), peak.grid().originX());
+            assertEquals(CityFixture.grid().pixelHeight(), peak.grid().pixelHeight());
+            assertEquals(32632, peak.grid().epsg());
+            assertEquals(CityJob.MAP_NODATA, peak.noDataValue().getAsDouble(), 0);
+            float[] v = peak.readFloatWindow(0, 0, CityFixture.W, CityFixture.H);
+            int nodata = 0;
+            for (int i = 0; i < v.length; i++) {
+                Row r = byCell.get((long) i);
+                if (r == null) {
+                    assertTrue(Float.isNaN(v[i]), "nodata cells read back as NaN (SIS maps the declared nodata)");
+                    nodata++;
+                } else {
+                    assertEquals((float) r.getDouble(6), v[i], 0f, "cell " + i);
+                }
+            }
+            assertEquals(6 * 9, nodata, "the nodata corner");
+        }
+    }
+
+    /** A cell of the city job equals the single-surface run of the same material and weather (1e-9 K). */
+    @Test
+    void aCityCellEqualsTheSingleSurfaceRun() {
+        TileJobSpec spec = prepared.spec();
+        TileSimulation.Settings s = spec.settings();
+        int[] codes = CityFixture.codes();
+        int cell = 0;
+        while (codes[cell] != 2) {
+            cell++; // the first dark-roof cell
+        }
+        int col = cell % CityFixture.W, row = cell / CityFixture.W;
+        int idx = spec.codeToPalette()[2];
+        SingleSurface.Result point = SingleSurface.run(spec.palette()[idx], spec.forcing(), s.substepMinutes(),
+                s.convection(), s.deepGroundK(), s.firstSampleHour(), s.thresholdK());
+        Row r = spark.read().parquet(out256.resolve("tables/cells").toString())
+                .where("col = " + col + " and row = " + row).first();
+        assertEquals(point.statistics.peakK(0) - Physical.ZERO_CELSIUS_K, r.getDouble(6), 1e-9);
+        assertEquals(point.statistics.meanK(0) - Physical.ZERO_CELSIUS_K, r.getDouble(7), 1e-9);
+        assertEquals(point.statistics.nightMinK(0) - Physical.ZERO_CELSIUS_K, r.getDouble(8), 1e-9);
+        assertEquals("roof_membrane_dark", r.getString(5));
+    }
+
+    /** Tile sizes 64 and 256 give byte-identical maps and tables (no seams). */
+    @Test
+    void tileSize64And256GiveIdenticalMapsAndTables() throws Exception {
+        Path rf = CityFixture.write(dir.resolve("in64"), 64, "  hourly_days: [2026-07-15]");
+        Path out64 = dir.resolve("out64");
+        CityJob.run(spark, RunPreparer.prepare(RunFileReader.read(rf)),
+                new CityJob.Options(out64, null, false, true, 0), quietConsole());
+        for (String m : List.of("peak", "mean", "night_min", "peak_hour", "degree_hours", "hourly_2026-07-15")) {
+            assertArrayEquals(Files.readAllBytes(out256.resolve("maps/" + m + ".tif")),
+                    Files.readAllBytes(out64.resolve("maps/" + m + ".tif")), m);
+        }
+        // Rows are the same set; their order follows the tiles.
+        assertEquals(0, spark.read().parquet(out256.resolve("tables/cells").toString())
+                .exceptAll(spark.read().parquet(out64.resolve("tables/cells").toString())).count());
+        assertEquals(0, spark.read().parquet(out64.resolve("tables/cells").toString())
+                .exceptAll(spark.read().parquet(out256.resolve("tables/cells").toString())).count());
+    }
+
+    /** An existing output folder is refused without --replace, and left as it was. */
+    @Test
+    void existingOutputIsRefusedUnlessReplace() throws Exception {
+        Path existing = dir.resolve("existing");
+        Files.createDirectories(existing);
+        Files.writeString(existing.resolve("keep.txt"), "mine");
+        var e = assertThrows(RuntimeException.class, () -> CityJob.run(spark, prepared,
+                new CityJob.Options(existing, null, false, true, 0), quietConsole()));
+        assertTrue(e.getMessage().contains("--replace"), e.getMessage());
+        assertEquals("mine", Files.readString(existing.resolve("keep.txt")));
+    }
+
+    static List<String> tree(Path root) throws Exception {
+        try (Stream<Path> s = Files.walk(root)) {
+            return s.filter(Files::isRegularFile).map(p -> root.relativize(p).toString()).sorted().toList();
+        }
+    }
+}
