@@ -41,6 +41,7 @@ final class TiffDirectory {
     static final int ROWS_PER_STRIP = 278;
     static final int STRIP_BYTE_COUNTS = 279;
     static final int DATE_TIME = 306;
+    static final int PREDICTOR = 317;
     static final int TILE_WIDTH = 322;
     static final int TILE_LENGTH = 323;
     static final int TILE_OFFSETS = 324;

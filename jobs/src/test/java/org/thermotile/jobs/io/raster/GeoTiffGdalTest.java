@@ -1,6 +1,8 @@
 package org.thermotile.jobs.io.raster;
 
+import static org.junit.jupiter.api.Assertions.assertArrayEquals;
 import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 import static org.junit.jupiter.api.Assertions.fail;
 import static org.junit.jupiter.api.Assumptions.assumeTrue;
@@ -178,6 +180,65 @@ class GeoTiffGdalTest {
         assertGeoreferencing(bigInfo, GRID);
         assertEquals(-9999.0, bigInfo.get("bands").get(0).get("noDataValue").asDouble(), 0.0);
         assertFieldStats(bigInfo.get("bands").get(0), W, H, 0);
+    }
+
+    @Test
+    void gdalWrittenInputsReadRightOrAreRefused() throws IOException {
+        // Land cover and heights as a GIS user might produce them with GDAL.
+        Path lc = dir.resolve("lc.tif");
+        int[] codes = new int[W * H];
+        for (int i = 0; i < codes.length; i++) {
+            codes[i] = (i * 31) % 251;
+        }
+        GeoTiffWriter.writeInt(lc, GRID, GeoTiffWriter.IntType.UINT8, codes, OptionalInt.empty());
+        Path heights = dir.resolve("h.tif");
+        float[] h = field(GRID, 0, -9999f);
+        GeoTiffWriter.writeFloat(heights, GRID, h, -9999f);
+
+        String[][] readable = {
+            {"lc", "-co", "COMPRESS=LZW", "-co", "PREDICTOR=2"},
+            {"lc", "-co", "TILED=YES", "-co", "BLOCKXSIZE=128", "-co", "BLOCKYSIZE=64", "-co", "COMPRESS=DEFLATE", "-co", "PREDICTOR=2"},
+            {"lc", "-ot", "Int16", "-co", "COMPRESS=PACKBITS"},
+            {"h", "-co", "COMPRESS=LZW"},
+            {"h", "-co", "TILED=YES", "-co", "COMPRESS=DEFLATE"},
+        };
+        int n = 0;
+        for (String[] opts : readable) {
+            Path out = translate(opts[0].equals("lc") ? lc : heights, "ok" + n++ + ".tif", opts);
+            try (GeoTiffReader r = GeoTiffReader.openSingleBand(out)) {
+                assertTrue(r.grid().sameGridAs(GRID), () -> String.join(" ", opts) + ": " + r.grid().differenceFrom(GRID));
+                if (opts[0].equals("lc")) {
+                    assertArrayEquals(codes, r.readIntWindow(0, 0, W, H), String.join(" ", opts));
+                } else {
+                    float[] got = r.readFloatWindow(0, 0, W, H);
+                    for (int i = 0; i < got.length; i++) {
+                        assertEquals(h[i] == -9999f ? Float.NaN : h[i], got[i], String.join(" ", opts) + " cell " + i);
+                    }
+                }
+            }
+        }
+        String[][] refused = {
+            {"h", "-co", "COMPRESS=DEFLATE", "-co", "PREDICTOR=2"},
+            {"h", "-co", "COMPRESS=DEFLATE", "-co", "PREDICTOR=3"},
+            {"h", "-co", "COMPRESS=ZSTD"},
+        };
+        for (String[] opts : refused) {
+            Path out = translate(heights, "refused" + n++ + ".tif", opts);
+            RasterFileException e = assertThrows(RasterFileException.class, () -> GeoTiffReader.open(out),
+                    String.join(" ", opts));
+            assertTrue(e.getMessage().contains("gdal_translate -co COMPRESS=DEFLATE"), e.getMessage());
+        }
+    }
+
+    /** gdal_translate with {@code opts[1…]} (opts[0] names the input kind). */
+    private Path translate(Path in, String name, String... opts) throws IOException {
+        Path out = dir.resolve(name);
+        List<String> cmd = new ArrayList<>(List.of("gdal_translate", "-q"));
+        cmd.addAll(List.of(opts).subList(1, opts.length));
+        cmd.add(in.toString());
+        cmd.add(out.toString());
+        run(cmd);
+        return out;
     }
 
     /** gdalinfo -json -stats on a copy, with GDAL's side-car .aux.xml files turned off. */

@@ -189,6 +189,28 @@ class GeoTiffReaderErrorsTest {
     }
 
     @Test
+    void compressionSisCannotRead() throws IOException {
+        Path f = dir.resolve("zstd.tif");
+        List<TinyTiff.Tag> tags = new ArrayList<>(TinyTiff.northUp(431_000, 5_006_000, 10));
+        tags.add(TinyTiff.projectedKeys(32633));
+        tags.add(new TinyTiff.Tag(TiffDirectory.COMPRESSION, new short[] {(short) 50000}));
+        TinyTiff.write(f, ByteOrder.LITTLE_ENDIAN, 4, 3, pixels(4, 3), tags);
+        assertFails(f, () -> GeoTiffReader.open(f), "ZSTD (TIFF compression 50000)", "-co COMPRESS=DEFLATE");
+    }
+
+    @Test
+    void floatingPointPredictorsAreRefused() throws IOException {
+        for (short predictor : new short[] {2, 3}) {
+            Path f = dir.resolve("predictor" + predictor + ".tif");
+            List<TinyTiff.Tag> tags = new ArrayList<>(TinyTiff.northUp(431_000, 5_006_000, 10));
+            tags.add(TinyTiff.projectedKeys(32633));
+            tags.add(new TinyTiff.Tag(TiffDirectory.PREDICTOR, new short[] {predictor}));
+            TinyTiff.write(f, ByteOrder.LITTLE_ENDIAN, 4, 3, pixels(4, 3), tags);
+            assertFails(f, () -> GeoTiffReader.open(f), "predictor " + predictor + " on float32", "-co PREDICTOR=1");
+        }
+    }
+
+    @Test
     void moreBandsThanExpected() {
         Path f = dir.resolve("two.tif");
         float[] b = GeoTiffRoundTripTest.fieldBand(GRID, 0);
