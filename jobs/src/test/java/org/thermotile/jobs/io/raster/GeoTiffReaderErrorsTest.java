@@ -110,6 +110,24 @@ class GeoTiffReaderErrorsTest {
     }
 
     @Test
+    void windowReadsOnlyTheTilesItTouches() throws IOException {
+        // Spoil the second tile (columns 256…299): a window inside the first tile still reads,
+        // so the reader did not decode the whole file; a window crossing into it fails.
+        Path f = writtenFloat("partial.tif");
+        long second = TiffDirectory.read(f).integers(TiffDirectory.TILE_OFFSETS)[1];
+        try (FileChannel ch = FileChannel.open(f, StandardOpenOption.WRITE)) {
+            byte[] junk = new byte[64];
+            java.util.Arrays.fill(junk, (byte) 0xFF);
+            ch.write(java.nio.ByteBuffer.wrap(junk), second);
+        }
+        try (GeoTiffReader r = GeoTiffReader.open(f)) {
+            float[] v = r.readFloatWindow(200, 100, 56, 70);
+            assertEquals(100 * 1000f + 201, v[1], "col 201, row 100");
+            assertFails(f, () -> r.readFloatWindow(250, 100, 10, 10), "failed");
+        }
+    }
+
+    @Test
     void noCrs() throws IOException {
         Path f = dir.resolve("nocrs.tif");
         TinyTiff.write(f, ByteOrder.LITTLE_ENDIAN, 4, 3, pixels(4, 3), TinyTiff.northUp(431_000, 5_006_000, 10));
