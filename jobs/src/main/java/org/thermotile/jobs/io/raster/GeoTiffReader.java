@@ -88,6 +88,7 @@ public final class GeoTiffReader implements AutoCloseable {
                     + dir.fileSize + " bytes (cut short?)");
         }
         noData = parseNoData(file, dir.ascii(TiffDirectory.GDAL_NODATA));
+        int declaredEpsg = dir.declaredEpsg();
 
         try {
             store = new GeoTiffStore(new GeoTiffStoreProvider(), new StorageConnector(file));
@@ -112,7 +113,7 @@ public final class GeoTiffReader implements AutoCloseable {
                     "check the CRS with gdalinfo; reproject to a WGS 84 / UTM zone with gdalwarp -t_srs EPSG:326xx", e);
         }
         try {
-            grid = gridOf(file, geometry, width, height);
+            grid = gridOf(file, geometry, width, height, declaredEpsg);
         } catch (RuntimeException e) {
             closeQuietly();
             throw e;
@@ -272,7 +273,12 @@ public final class GeoTiffReader implements AutoCloseable {
         return warnings.isEmpty() ? "" : " (warnings: " + String.join("; ", warnings) + ")";
     }
 
-    private RasterGrid gridOf(Path file, GridGeometry g, int width, int height) {
+    private RasterGrid gridOf(Path file, GridGeometry g, int width, int height, int declaredEpsg) {
+        if (!g.isDefined(GridGeometry.CRS) && declaredEpsg > 0) {
+            throw new RasterFileException(file, "declares EPSG:" + declaredEpsg + ", which Apache SIS cannot build "
+                    + "without the EPSG geodetic dataset (it knows WGS 84 and its UTM zones built in)" + warningText(),
+                    "reproject it to a WGS 84 / UTM zone, e.g. gdalwarp -t_srs EPSG:326xx in.tif out.tif");
+        }
         if (!g.isDefined(GridGeometry.CRS)) {
             throw new RasterFileException(file, "has no coordinate reference system" + warningText(),
                     "assign one, e.g. gdal_edit.py -a_srs EPSG:<code> " + file.getFileName());

@@ -159,7 +159,7 @@ public final class GeoTiffWriter {
             int nd = noData.getAsInt();
             if (nd < type.min || nd > type.max) {
                 throw new IllegalArgumentException(file + ": no-data value " + nd + " is outside the "
-                        + type.name().toLowerCase() + " range " + type.min + "…" + type.max);
+                        + type.name().toLowerCase(java.util.Locale.ROOT) + " range " + type.min + "…" + type.max);
             }
             noDataText = Integer.toString(nd);
         }
@@ -313,7 +313,7 @@ public final class GeoTiffWriter {
             int v = block[i];
             if (v < type.min || v > type.max) {
                 throw new IllegalArgumentException(file + ": value " + v + " at row " + (r0 + i / w) + ", column "
-                        + (c0 + i % w) + " is outside the " + type.name().toLowerCase() + " range "
+                        + (c0 + i % w) + " is outside the " + type.name().toLowerCase(java.util.Locale.ROOT) + " range "
                         + type.min + "…" + type.max);
             }
         }

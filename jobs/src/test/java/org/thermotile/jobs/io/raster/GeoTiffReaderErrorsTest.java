@@ -188,6 +188,16 @@ class GeoTiffReaderErrorsTest {
     }
 
     @Test
+    void crsCodeUnknownWithoutTheEpsgDatabase() throws IOException {
+        Path f = dir.resolve("lv95.tif");
+        List<TinyTiff.Tag> tags = new ArrayList<>(TinyTiff.northUp(2_600_000, 1_200_000, 10));
+        tags.add(TinyTiff.projectedKeys(2056));
+        TinyTiff.write(f, ByteOrder.LITTLE_ENDIAN, 4, 3, pixels(4, 3), tags);
+        // EPSG:2056 (CH1903+ / LV95) is not among the codes SIS builds without the EPSG dataset.
+        assertFails(f, () -> GeoTiffReader.open(f), "declares EPSG:2056", "gdalwarp -t_srs EPSG:326xx");
+    }
+
+    @Test
     void emptyRaster() throws IOException {
         Path f = dir.resolve("empty-raster.tif");
         List<TinyTiff.Tag> tags = new ArrayList<>(TinyTiff.northUp(431_000, 5_006_000, 10));
