@@ -94,6 +94,18 @@ class GeoTiffReaderErrorsTest {
     }
 
     @Test
+    void cutAfterAnIntactDirectory() throws IOException {
+        // Directory first, pixels last (as GDAL writes): the cut is seen from the strip extents.
+        Path f = dir.resolve("front.tif");
+        List<TinyTiff.Tag> tags = new ArrayList<>(TinyTiff.northUp(431_000, 5_006_000, 10));
+        tags.add(TinyTiff.projectedKeys(32633));
+        TinyTiff.write(f, ByteOrder.LITTLE_ENDIAN, 40, 30, pixels(40, 30), tags);
+        long size = Files.size(f);
+        truncate(f, size - 100);
+        assertFails(f, () -> GeoTiffReader.open(f), "pixel data runs to byte " + size, "has only " + (size - 100));
+    }
+
+    @Test
     void corruptedTileDataFailsOnReadNotSilently() throws IOException {
         Path f = writtenFloat("corrupt.tif");
         TiffDirectory d = TiffDirectory.read(f);
