@@ -31,7 +31,7 @@ import org.opengis.referencing.operation.Matrix;
  *
  * <p>Opening checks the whole file's structure once, so a run can be validated before it starts:
  * missing file, not a TIFF, cut-short or damaged file (the pixel data must fit in the file), empty
- * raster, unsupported sample type, missing CRS, a CRS that is not projected in metres, and a
+ * raster, unsupported sample type, compression or predictor, missing CRS, a CRS that is not projected in metres, and a
  * rotated, sheared or south-up geotransform are each reported as a {@link RasterFileException}
  * naming the file and the fix. The no-data value is GDAL's tag 42113, read from the TIFF directory.
  *
@@ -81,12 +81,14 @@ public final class GeoTiffReader implements AutoCloseable {
         }
         bandCount = (int) dir.integer(TiffDirectory.SAMPLES_PER_PIXEL, 1);
         sampleType = sampleType(file, dir);
+        checkCompression(file, dir, sampleType);
         long end = dir.pixelDataEnd();
         if (end > dir.fileSize) {
             throw TiffDirectory.damaged(file, "its pixel data runs to byte " + end + " but the file has only "
                     + dir.fileSize + " bytes (cut short?)");
         }
         noData = parseNoData(file, dir.ascii(TiffDirectory.GDAL_NODATA));
+        int declaredEpsg = dir.declaredEpsg();
 
         try {
             store = new GeoTiffStore(new GeoTiffStoreProvider(), new StorageConnector(file));
@@ -111,7 +113,7 @@ public final class GeoTiffReader implements AutoCloseable {
                     "check the CRS with gdalinfo; reproject to a WGS 84 / UTM zone with gdalwarp -t_srs EPSG:326xx", e);
         }
         try {
-            grid = gridOf(file, geometry, width, height);
+            grid = gridOf(file, geometry, width, height, declaredEpsg);
         } catch (RuntimeException e) {
             closeQuietly();
             throw e;
@@ -271,7 +273,12 @@ public final class GeoTiffReader implements AutoCloseable {
         return warnings.isEmpty() ? "" : " (warnings: " + String.join("; ", warnings) + ")";
     }
 
-    private RasterGrid gridOf(Path file, GridGeometry g, int width, int height) {
+    private RasterGrid gridOf(Path file, GridGeometry g, int width, int height, int declaredEpsg) {
+        if (!g.isDefined(GridGeometry.CRS) && declaredEpsg > 0) {
+            throw new RasterFileException(file, "declares EPSG:" + declaredEpsg + ", which Apache SIS cannot build "
+                    + "without the EPSG geodetic dataset (it knows WGS 84 and its UTM zones built in)" + warningText(),
+                    "reproject it to a WGS 84 / UTM zone, e.g. gdalwarp -t_srs EPSG:326xx in.tif out.tif");
+        }
         if (!g.isDefined(GridGeometry.CRS)) {
             throw new RasterFileException(file, "has no coordinate reference system" + warningText(),
                     "assign one, e.g. gdal_edit.py -a_srs EPSG:<code> " + file.getFileName());
@@ -303,6 +310,37 @@ public final class GeoTiffReader implements AutoCloseable {
                     + "; north-up has width > 0 and height < 0)", FIX_ROTATED);
         }
         return new RasterGrid(width, height, c, f, a, e, SisCrs.epsgOf(crs), SisCrs.wkt(crs));
+    }
+
+    /**
+     * Refuses what Apache SIS 1.6 cannot decode, or decodes wrongly: compressions other than none,
+     * LZW, DEFLATE and PackBits (TIFF 6.0 §3 and §9, codes 1, 5, 8/32946, 32773), the
+     * floating-point predictor (Predictor 3, Adobe TIFF Technical Note 3), and horizontal
+     * differencing (Predictor 2) on floating-point samples, which SIS 1.6 read back wrong without
+     * any error in a trial on a GDAL-written file.
+     */
+    private static void checkCompression(Path file, TiffDirectory dir, SampleType type) throws IOException {
+        long c = dir.integer(TiffDirectory.COMPRESSION, 1);
+        if (c != 1 && c != 5 && c != 8 && c != 32946 && c != 32773) {
+            String name = switch ((int) c) {
+                case 7 -> "JPEG";
+                case 34712 -> "JPEG 2000";
+                case 34887 -> "LERC";
+                case 34925 -> "LZMA";
+                case 50000 -> "ZSTD";
+                case 50001 -> "WEBP";
+                default -> "code " + c;
+            };
+            throw new RasterFileException(file, "is compressed with " + name + " (TIFF compression " + c
+                    + "), which Apache SIS 1.6 cannot read (it reads none, LZW, DEFLATE and PackBits)",
+                    "recompress it, e.g. gdal_translate -co COMPRESS=DEFLATE in.tif out.tif");
+        }
+        long p = dir.integer(TiffDirectory.PREDICTOR, 1);
+        if (p == 3 || (p == 2 && !type.isInteger()) || p > 3) {
+            throw new RasterFileException(file, "uses TIFF predictor " + p + " on " + type.label()
+                    + " samples, which Apache SIS 1.6 cannot read correctly",
+                    "rewrite it without predictor, e.g. gdal_translate -co COMPRESS=DEFLATE -co PREDICTOR=1 in.tif out.tif");
+        }
     }
 
     private static SampleType sampleType(Path file, TiffDirectory dir) throws IOException {

@@ -29,8 +29,8 @@ import org.opengis.util.FactoryException;
  * signed bytes back (it fails with "The 'SHORT' type is not supported"), so uint8 or int16 it is.
  *
  * <p>Files are tiled {@value #TILE_SIZE}×{@value #TILE_SIZE} (a raster at most
- * {@value #TILE_SIZE} columns wide is written as strips of {@value #TILE_SIZE} full rows instead,
- * see {@link #tileWidthFor}), DEFLATE-compressed, band-sequential (planar configuration 2), with
+ * {@value #TILE_SIZE} columns wide is written as full-width strips instead, see
+ * {@link #tileWidthFor} and {@link #tileHeightFor}), DEFLATE-compressed, band-sequential (planar configuration 2), with
  * the grid's CRS (its EPSG code in the GeoTIFF keys) and geotransform, and a declared no-data
  * value in GDAL's tag 42113 so that GIS programs mask it. No date or software tag: identical data
  * give byte-identical files. Files whose uncompressed size exceeds {@value #BIG_TIFF_BYTES} bytes
@@ -159,7 +159,7 @@ public final class GeoTiffWriter {
             int nd = noData.getAsInt();
             if (nd < type.min || nd > type.max) {
                 throw new IllegalArgumentException(file + ": no-data value " + nd + " is outside the "
-                        + type.name().toLowerCase() + " range " + type.min + "…" + type.max);
+                        + type.name().toLowerCase(java.util.Locale.ROOT) + " range " + type.min + "…" + type.max);
             }
             noDataText = Integer.toString(nd);
         }
@@ -184,6 +184,26 @@ public final class GeoTiffWriter {
      */
     static int tileWidthFor(int width) {
         return Math.min(width, TILE_SIZE);
+    }
+
+    /**
+     * The tile height for a raster of {@code width} × {@code height} cells: {@value #TILE_SIZE}
+     * when it is written as tiles; when it is written as strips ({@code width ≤ }{@value
+     * #TILE_SIZE}), the largest divisor of {@code height} not above {@value #TILE_SIZE}. SIS 1.6
+     * writes every strip with the full tile height, while TIFF 6.0 (section 3, RowsPerStrip)
+     * wants the last strip cut to the rows left; GDAL 3.6 then read wrong values at the end of
+     * the last strip in a trial. With strips that divide the height, every strip is full.
+     * A prime height gives one row per strip: correct, and such narrow rasters are small.
+     */
+    static int tileHeightFor(int width, int height) {
+        if (width > TILE_SIZE) {
+            return TILE_SIZE;
+        }
+        for (int rows = Math.min(height, TILE_SIZE); ; rows--) {
+            if (height % rows == 0) {
+                return rows;
+            }
+        }
     }
 
     /**
@@ -224,7 +244,8 @@ public final class GeoTiffWriter {
                         grid.pixelWidth(), 0, grid.originX(),
                         0, grid.pixelHeight(), grid.originY(),
                         0, 0, 1)), crs);
-        BlockImage image = new BlockImage(grid.width(), grid.height(), tileWidthFor(grid.width()), TILE_SIZE,
+        BlockImage image = new BlockImage(grid.width(), grid.height(), tileWidthFor(grid.width()),
+                tileHeightFor(grid.width(), grid.height()),
                 bandCount, dataType, displayMin, displayMax, (tile, c0, r0, w, h) -> {
                     try {
                         filler.fill(tile, c0, r0, w, h);
@@ -292,7 +313,7 @@ public final class GeoTiffWriter {
             int v = block[i];
             if (v < type.min || v > type.max) {
                 throw new IllegalArgumentException(file + ": value " + v + " at row " + (r0 + i / w) + ", column "
-                        + (c0 + i % w) + " is outside the " + type.name().toLowerCase() + " range "
+                        + (c0 + i % w) + " is outside the " + type.name().toLowerCase(java.util.Locale.ROOT) + " range "
                         + type.min + "…" + type.max);
             }
         }

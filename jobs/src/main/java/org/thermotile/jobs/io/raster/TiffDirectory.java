@@ -41,11 +41,13 @@ final class TiffDirectory {
     static final int ROWS_PER_STRIP = 278;
     static final int STRIP_BYTE_COUNTS = 279;
     static final int DATE_TIME = 306;
+    static final int PREDICTOR = 317;
     static final int TILE_WIDTH = 322;
     static final int TILE_LENGTH = 323;
     static final int TILE_OFFSETS = 324;
     static final int TILE_BYTE_COUNTS = 325;
     static final int SAMPLE_FORMAT = 339;
+    static final int GEO_KEY_DIRECTORY = 34735;
     /** GDAL's no-data tag: the value as ASCII text (GDAL GTiff driver documentation). */
     static final int GDAL_NODATA = 42113;
 
@@ -255,6 +257,30 @@ final class TiffDirectory {
     private long fieldAsOffset(Entry e) {
         ByteBuffer f = ByteBuffer.wrap(e.field).order(order);
         return bigTiff ? f.getLong(0) : f.getInt(0) & 0xFFFFFFFFL;
+    }
+
+    /**
+     * The EPSG code the GeoTIFF keys declare for the CRS, or 0: ProjectedCSTypeGeoKey (3072), else
+     * GeographicTypeGeoKey (2048), when stored inline and not "user-defined" (32767). Layout of
+     * the GeoKeyDirectory (tag 34735): a 4-short header, then 4 shorts per key (id, tag location,
+     * count, value), from OGC GeoTIFF 1.1 (19-008r4) section 7.1.
+     */
+    int declaredEpsg() throws IOException {
+        long[] k = integers(GEO_KEY_DIRECTORY);
+        if (k == null) {
+            return 0;
+        }
+        int projected = 0, geographic = 0;
+        for (int i = 4; i + 3 < k.length; i += 4) {
+            if (k[i + 1] == 0 && k[i + 3] > 0 && k[i + 3] < 32767) {
+                if (k[i] == 3072) {
+                    projected = (int) k[i + 3];
+                } else if (k[i] == 2048) {
+                    geographic = (int) k[i + 3];
+                }
+            }
+        }
+        return projected > 0 ? projected : geographic;
     }
 
     /**

@@ -94,6 +94,18 @@ class GeoTiffReaderErrorsTest {
     }
 
     @Test
+    void cutAfterAnIntactDirectory() throws IOException {
+        // Directory first, pixels last (as GDAL writes): the cut is seen from the strip extents.
+        Path f = dir.resolve("front.tif");
+        List<TinyTiff.Tag> tags = new ArrayList<>(TinyTiff.northUp(431_000, 5_006_000, 10));
+        tags.add(TinyTiff.projectedKeys(32633));
+        TinyTiff.write(f, ByteOrder.LITTLE_ENDIAN, 40, 30, pixels(40, 30), tags);
+        long size = Files.size(f);
+        truncate(f, size - 100);
+        assertFails(f, () -> GeoTiffReader.open(f), "pixel data runs to byte " + size, "has only " + (size - 100));
+    }
+
+    @Test
     void corruptedTileDataFailsOnReadNotSilently() throws IOException {
         Path f = writtenFloat("corrupt.tif");
         TiffDirectory d = TiffDirectory.read(f);
@@ -106,6 +118,24 @@ class GeoTiffReaderErrorsTest {
         try (GeoTiffReader r = GeoTiffReader.open(f)) {
             assertFails(f, () -> r.readFloatWindow(0, 0, 10, 10), "reading columns 0…9, rows 0…9 failed",
                     "damaged or cut short");
+        }
+    }
+
+    @Test
+    void windowReadsOnlyTheTilesItTouches() throws IOException {
+        // Spoil the second tile (columns 256…299): a window inside the first tile still reads,
+        // so the reader did not decode the whole file; a window crossing into it fails.
+        Path f = writtenFloat("partial.tif");
+        long second = TiffDirectory.read(f).integers(TiffDirectory.TILE_OFFSETS)[1];
+        try (FileChannel ch = FileChannel.open(f, StandardOpenOption.WRITE)) {
+            byte[] junk = new byte[64];
+            java.util.Arrays.fill(junk, (byte) 0xFF);
+            ch.write(java.nio.ByteBuffer.wrap(junk), second);
+        }
+        try (GeoTiffReader r = GeoTiffReader.open(f)) {
+            float[] v = r.readFloatWindow(200, 100, 56, 70);
+            assertEquals(100 * 1000f + 201, v[1], "col 201, row 100");
+            assertFails(f, () -> r.readFloatWindow(250, 100, 10, 10), "failed");
         }
     }
 
@@ -170,6 +200,16 @@ class GeoTiffReaderErrorsTest {
     }
 
     @Test
+    void crsCodeUnknownWithoutTheEpsgDatabase() throws IOException {
+        Path f = dir.resolve("lv95.tif");
+        List<TinyTiff.Tag> tags = new ArrayList<>(TinyTiff.northUp(2_600_000, 1_200_000, 10));
+        tags.add(TinyTiff.projectedKeys(2056));
+        TinyTiff.write(f, ByteOrder.LITTLE_ENDIAN, 4, 3, pixels(4, 3), tags);
+        // EPSG:2056 (CH1903+ / LV95) is not among the codes SIS builds without the EPSG dataset.
+        assertFails(f, () -> GeoTiffReader.open(f), "declares EPSG:2056", "gdalwarp -t_srs EPSG:326xx");
+    }
+
+    @Test
     void emptyRaster() throws IOException {
         Path f = dir.resolve("empty-raster.tif");
         List<TinyTiff.Tag> tags = new ArrayList<>(TinyTiff.northUp(431_000, 5_006_000, 10));
@@ -186,6 +226,28 @@ class GeoTiffReaderErrorsTest {
         tags.add(new TinyTiff.Tag(TiffDirectory.GDAL_NODATA, "none"));
         TinyTiff.write(f, ByteOrder.LITTLE_ENDIAN, 4, 3, pixels(4, 3), tags);
         assertFails(f, () -> GeoTiffReader.open(f), "\"none\"", "-a_nodata");
+    }
+
+    @Test
+    void compressionSisCannotRead() throws IOException {
+        Path f = dir.resolve("zstd.tif");
+        List<TinyTiff.Tag> tags = new ArrayList<>(TinyTiff.northUp(431_000, 5_006_000, 10));
+        tags.add(TinyTiff.projectedKeys(32633));
+        tags.add(new TinyTiff.Tag(TiffDirectory.COMPRESSION, new short[] {(short) 50000}));
+        TinyTiff.write(f, ByteOrder.LITTLE_ENDIAN, 4, 3, pixels(4, 3), tags);
+        assertFails(f, () -> GeoTiffReader.open(f), "ZSTD (TIFF compression 50000)", "-co COMPRESS=DEFLATE");
+    }
+
+    @Test
+    void floatingPointPredictorsAreRefused() throws IOException {
+        for (short predictor : new short[] {2, 3}) {
+            Path f = dir.resolve("predictor" + predictor + ".tif");
+            List<TinyTiff.Tag> tags = new ArrayList<>(TinyTiff.northUp(431_000, 5_006_000, 10));
+            tags.add(TinyTiff.projectedKeys(32633));
+            tags.add(new TinyTiff.Tag(TiffDirectory.PREDICTOR, new short[] {predictor}));
+            TinyTiff.write(f, ByteOrder.LITTLE_ENDIAN, 4, 3, pixels(4, 3), tags);
+            assertFails(f, () -> GeoTiffReader.open(f), "predictor " + predictor + " on float32", "-co PREDICTOR=1");
+        }
     }
 
     @Test

@@ -170,6 +170,10 @@ class GeoTiffRoundTripTest {
                     }
                 }
                 assertTrue(r.grid().sameGridAs(GRID));
+                float[] asFloat = r.readFloatWindow(0, 0, W, H);
+                for (int i = 0; i < v.length; i++) {
+                    assertEquals(v[i] == hi ? Float.NaN : (float) v[i], asFloat[i], "as float, no-data is NaN");
+                }
             }
         }
     }

@@ -80,6 +80,7 @@ public final class TinyTiff {
 
     /**
      * Writes the file: pixels row-major (width·height float32 values), little- or big-endian.
+     * A tag in {@code extra} replaces the baseline tag of the same code.
      */
     public static void write(Path file, ByteOrder order, int width, int height, float[] pixels, List<Tag> extra)
             throws IOException {
@@ -95,7 +96,10 @@ public final class TinyTiff {
                 new Tag(278, new int[] {Math.max(height, 1)}),
                 new Tag(279, new int[] {dataBytes}),
                 new Tag(339, new short[] {3})));
-        tags.addAll(extra);
+        for (Tag t : extra) {
+            tags.removeIf(base -> base.tag == t.tag);         // an extra tag replaces a baseline one
+            tags.add(t);
+        }
         tags.sort(Comparator.comparingInt(Tag::tag));
 
         int ifdSize = 2 + 12 * tags.size() + 4;
