@@ -117,6 +117,9 @@ public final class CityJob {
         List<String> maps = MapOutputs.write(p, collected, tmp.resolve("maps"));
         TableOutputs.writeCells(spark, p, results, tmp.resolve("tables/cells"));
         TableOutputs.writeMaterialHours(spark, p, collected, tmp.resolve("tables/material_hours"));
+        if (!p.districtNames().isEmpty()) {
+            TableOutputs.writeDistrictHours(spark, p, collected, tmp.resolve("tables/district_hours"));
+        }
         if (p.hourlyEpochSeconds().length > 0) {
             TableOutputs.writeCellHours(spark, p, results, tmp.resolve("tables/cell_hours"));
         }

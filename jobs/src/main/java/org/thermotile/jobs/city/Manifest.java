@@ -58,6 +58,9 @@ final class Manifest {
         s.maps().forEach(outs::add);
         outs.add("tables/cells");
         outs.add("tables/material_hours");
+        if (!p.districtNames().isEmpty()) {
+            outs.add("tables/district_hours");
+        }
         if (p.hourlyEpochSeconds().length > 0) {
             outs.add("tables/cell_hours");
         }

@@ -12,6 +12,7 @@ import org.thermotile.jobs.io.raster.RasterGrid;
  * @param spec          what every tile task gets (broadcast)
  * @param tiles         the tiles, row-major
  * @param paletteLabels per palette entry, the material id plus any overrides ("asphalt_aged")
+ * @param districtNames district names in file order (empty without districts)
  * @param codeCounts    land-cover code → cells (nodata excluded)
  * @param fallbackCodes codes that took the class table's fallback material, with their counts
  * @param inputFiles    every input file read, for the manifest's hashes (label → location)
@@ -20,7 +21,7 @@ import org.thermotile.jobs.io.raster.RasterGrid;
  * @param notes         things worth telling the user (filled weather gaps, fallbacks)
  */
 public record PreparedRun(RunFile run, RasterGrid grid, TileJobSpec spec, List<TileSpec> tiles,
-        List<String> paletteLabels, Map<Integer, Long> codeCounts, Map<Integer, Long> fallbackCodes,
+        List<String> paletteLabels, List<String> districtNames, Map<Integer, Long> codeCounts, Map<Integer, Long> fallbackCodes,
         Map<String, String> inputFiles, long[] sampleEpochSeconds, long[] hourlyEpochSeconds,
         List<String> notes) {
 

@@ -22,6 +22,7 @@ import org.thermotile.jobs.config.ClassTable;
 import org.thermotile.jobs.config.ClassTableReader;
 import org.thermotile.jobs.config.RunFile;
 import org.thermotile.jobs.io.MaterialsFile;
+import org.thermotile.jobs.io.districts.Districts;
 import org.thermotile.jobs.io.raster.GeoTiffReader;
 import org.thermotile.jobs.io.raster.RasterGrid;
 import org.thermotile.jobs.io.weather.GapFill;
@@ -103,11 +104,10 @@ public final class RunPreparer {
                 });
             }
         }
+        Districts districts = null;
         if (in.districts() != null) {
             Path d = localPath(in.districts(), "inputs.districts");
-            if (!Files.isRegularFile(d)) {
-                throw new UserInputException(d + ": districts file not found. Fix: check inputs.districts");
-            }
+            districts = Districts.read(d, grid);
             inputs.put("districts", d.toString());
         }
 
@@ -219,10 +219,12 @@ public final class RunPreparer {
         TileSimulation.Settings settings = new TileSimulation.Settings(run.physics().timestepMinutes(),
                 convection, deepK, firstSample, run.outputs().thresholdK(),
                 hourlyIdx.stream().mapToInt(Integer::intValue).toArray());
-        TileJobSpec spec = new TileJobSpec(landCover.toString(), palette.toArray(new Material[0]), lut,
-                used, settings);
+        TileJobSpec spec = new TileJobSpec(landCover.toString(), grid, palette.toArray(new Material[0]), lut,
+                districts == null ? List.of() : districts.geometries(), used, settings);
+        List<String> districtNames = districts == null ? List.of()
+                : districts.districts().stream().map(Districts.District::name).toList();
         return new PreparedRun(run, grid, spec, TileSpec.plan(grid.width(), grid.height(), tileSize),
-                List.copyOf(labels), counts, fallback, inputs,
+                List.copyOf(labels), districtNames, counts, fallback, inputs,
                 samples.stream().mapToLong(Long::longValue).toArray(),
                 hourlyTimes.stream().mapToLong(Long::longValue).toArray(), notes);
     }

@@ -18,6 +18,7 @@ import org.apache.spark.sql.types.DataTypes;
 import org.apache.spark.sql.types.StructType;
 import org.thermotile.jobs.io.raster.RasterGrid;
 import org.thermotile.model.constants.Physical;
+import org.thermotile.model.stats.GroupHourStats;
 import org.thermotile.model.tile.TileSimulation;
 
 /**
@@ -34,19 +35,13 @@ final class TableOutputs {
             .add("y", DataTypes.DoubleType, false)
             .add("land_cover", DataTypes.IntegerType, false)
             .add("material", DataTypes.StringType, false)
+            .add("district", DataTypes.StringType, true)
             .add("peak_c", DataTypes.DoubleType, false)
             .add("mean_c", DataTypes.DoubleType, false)
             .add("night_min_c", DataTypes.DoubleType, true)
             .add("peak_hour", DataTypes.IntegerType, false)
             .add("hours_above", DataTypes.IntegerType, false)
             .add("degree_hours", DataTypes.DoubleType, false);
-
-    static final StructType MATERIAL_HOURS = new StructType()
-            .add("material", DataTypes.StringType, false)
-            .add("time", DataTypes.StringType, false)
-            .add("local_hour", DataTypes.IntegerType, false)
-            .add("mean_c", DataTypes.DoubleType, false)
-            .add("cells", DataTypes.LongType, false);
 
     static final StructType CELL_HOURS = new StructType()
             .add("col", DataTypes.IntegerType, false)
@@ -58,6 +53,7 @@ final class TableOutputs {
     static void writeCells(SparkSession spark, PreparedRun p, JavaRDD<TileOutput> results, Path dir) {
         RasterGrid grid = p.grid();
         List<String> labels = p.paletteLabels();
+        List<String> districts = p.districtNames();
         JavaRDD<Row> rows = results.flatMap(o -> {
             TileSpec t = o.tile();
             TileSimulation.Result r = o.result();
@@ -71,7 +67,10 @@ final class TableOutputs {
                 int row = t.row0() + i / t.width();
                 double night = r.nightMinC[i];
                 out.add(RowFactory.create(col, row, grid.cellCentreX(col), grid.cellCentreY(row),
-                        o.codes()[i], labels.get(idx), r.peakC[i], r.meanC[i],
+                        o.codes()[i], labels.get(idx),
+                        o.districtIndex() == null || o.districtIndex()[i] < 0 ? null
+                                : districts.get(o.districtIndex()[i]),
+                        r.peakC[i], r.meanC[i],
                         Double.isNaN(night) ? null : night, (int) r.peakHour[i], (int) r.hoursAbove[i],
                         r.degreeHoursAbove[i]));
             }
@@ -81,37 +80,59 @@ final class TableOutputs {
         renameParts(dir);
     }
 
-    /** Per-material hourly means of surface temperature (diurnal curves), from the tiles' sums. */
+    /** Per-material hourly mean and 10–90 % band of surface temperature (diurnal curves). */
     static void writeMaterialHours(SparkSession spark, PreparedRun p, List<TileOutput> tiles, Path dir) {
-        int palette = p.paletteLabels().size();
-        long[] samples = p.sampleEpochSeconds();
-        double[][] sum = new double[palette][samples.length];
-        long[] cells = new long[palette];
+        GroupHourStats all = null;
         for (TileOutput o : tiles) {
-            TileSimulation.Result r = o.result();
-            for (int m = 0; m < palette; m++) {
-                cells[m] += r.paletteCells[m];
-                double[] s = r.paletteHourSumK[m];
-                for (int h = 0; h < samples.length; h++) {
-                    sum[m][h] += s[h];
-                }
+            if (all == null) {
+                all = new GroupHourStats(o.result().materialHours.groups, o.result().materialHours.hours);
             }
+            all.merge(o.result().materialHours);
         }
-        int off = p.spec().forcing().utcOffsetSeconds;
-        java.time.ZoneOffset zo = java.time.ZoneOffset.ofTotalSeconds(off);
+        writeGroupHours(spark, p, all, p.paletteLabels(), "material", dir);
+    }
+
+    /** Per-district hourly mean and 10–90 % band of surface temperature. */
+    static void writeDistrictHours(SparkSession spark, PreparedRun p, List<TileOutput> tiles, Path dir) {
+        GroupHourStats all = null;
+        for (TileOutput o : tiles) {
+            GroupHourStats d = o.result().districtHours;
+            if (all == null) {
+                all = new GroupHourStats(d.groups, d.hours);
+            }
+            all.merge(d);
+        }
+        writeGroupHours(spark, p, all, p.districtNames(), "district", dir);
+    }
+
+    static StructType groupHours(String key) {
+        return new StructType()
+                .add(key, DataTypes.StringType, false)
+                .add("time", DataTypes.StringType, false)
+                .add("local_hour", DataTypes.IntegerType, false)
+                .add("mean_c", DataTypes.DoubleType, false)
+                .add("p10_c", DataTypes.DoubleType, false)
+                .add("p90_c", DataTypes.DoubleType, false)
+                .add("cells", DataTypes.LongType, false);
+    }
+
+    static void writeGroupHours(SparkSession spark, PreparedRun p, GroupHourStats st, List<String> names,
+            String key, Path dir) {
+        long[] samples = p.sampleEpochSeconds();
+        java.time.ZoneOffset zo = java.time.ZoneOffset.ofTotalSeconds(p.spec().forcing().utcOffsetSeconds);
         List<Row> rows = new ArrayList<>();
-        for (int m = 0; m < palette; m++) {
-            if (cells[m] == 0) {
+        for (int g = 0; g < names.size(); g++) {
+            if (st.count(g, 0) == 0) {
                 continue;
             }
             for (int h = 0; h < samples.length; h++) {
                 java.time.OffsetDateTime t = java.time.OffsetDateTime.ofInstant(
                         java.time.Instant.ofEpochSecond(samples[h]), zo);
-                rows.add(RowFactory.create(p.paletteLabels().get(m), t.toString(), t.getHour(),
-                        sum[m][h] / cells[m] - Physical.ZERO_CELSIUS_K, cells[m]));
+                rows.add(RowFactory.create(names.get(g), t.toString(), t.getHour(), st.meanC(g, h),
+                        st.quantileC(g, h, 0.1), st.quantileC(g, h, 0.9), st.count(g, h)));
             }
         }
-        spark.createDataFrame(rows, MATERIAL_HOURS).coalesce(1).write().mode(SaveMode.ErrorIfExists)
+        spark.createDataFrame(rows, groupHours(key)).coalesce(1).write().mode(SaveMode.ErrorIfExists)
                 .parquet(dir.toUri().toString());
         renameParts(dir);
     }

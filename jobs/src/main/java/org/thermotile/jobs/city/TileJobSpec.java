@@ -1,5 +1,8 @@
 package org.thermotile.jobs.city;
 
+import java.util.List;
+import org.locationtech.jts.geom.Geometry;
+import org.thermotile.jobs.io.raster.RasterGrid;
 import org.thermotile.model.forcing.Forcing;
 import org.thermotile.model.materials.Material;
 import org.thermotile.model.tile.TileSimulation;
@@ -11,7 +14,9 @@ import org.thermotile.model.tile.TileSimulation;
  * @param landCover     land-cover GeoTIFF location (a string: paths do not serialise)
  * @param codeToPalette per land-cover code 0…65535, the palette index, or
  *                      {@link TileSimulation#NO_MATERIAL} (nodata)
+ * @param districts     district polygons in the grid's CRS (empty without districts)
  */
-public record TileJobSpec(String landCover, Material[] palette, int[] codeToPalette, Forcing forcing,
-        TileSimulation.Settings settings) implements java.io.Serializable {
+public record TileJobSpec(String landCover, RasterGrid grid, Material[] palette, int[] codeToPalette,
+        List<Geometry> districts, Forcing forcing, TileSimulation.Settings settings)
+        implements java.io.Serializable {
 }

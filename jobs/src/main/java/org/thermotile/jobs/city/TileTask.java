@@ -1,6 +1,7 @@
 package org.thermotile.jobs.city;
 
 import java.nio.file.Path;
+import org.thermotile.jobs.io.districts.Districts;
 import org.thermotile.jobs.io.raster.GeoTiffReader;
 import org.thermotile.model.tile.TileSimulation;
 
@@ -20,7 +21,10 @@ public final class TileTask {
             int c = codes[i];
             idx[i] = (c >= 0 && c < lut.length) ? lut[c] : TileSimulation.NO_MATERIAL;
         }
-        TileSimulation.Result res = TileSimulation.run(spec.palette(), idx, spec.forcing(), spec.settings());
-        return new TileOutput(tile, codes, idx, res, (System.nanoTime() - t0) / 1e9);
+        int[] district = spec.districts().isEmpty() ? null : Districts.assign(spec.districts(), spec.grid(),
+                tile.col0(), tile.row0(), tile.width(), tile.height());
+        TileSimulation.Result res = TileSimulation.run(spec.palette(), idx, district, spec.districts().size(),
+                spec.forcing(), spec.settings());
+        return new TileOutput(tile, codes, idx, district, res, (System.nanoTime() - t0) / 1e9);
     }
 }

@@ -53,12 +53,25 @@ final class CityFixture {
               - {code: 5, material: water, label: river}
             """;
 
+    /** West and east halves (the east half ends 50 m short of the grid's edge). */
+    static final String DISTRICTS = """
+            {"type": "FeatureCollection",
+             "crs": {"type": "name", "properties": {"name": "urn:ogc:def:crs:EPSG::32632"}},
+             "features": [
+              {"type": "Feature", "properties": {"id": "w", "name": "West"}, "geometry": {"type": "Polygon",
+               "coordinates": [[[500000, 5020000], [500375, 5020000], [500375, 5019450], [500000, 5019450], [500000, 5020000]]]}},
+              {"type": "Feature", "properties": {"id": "e", "name": "East"}, "geometry": {"type": "Polygon",
+               "coordinates": [[[500375, 5020000], [500700, 5020000], [500700, 5019450], [500375, 5019450], [500375, 5020000]]]}}
+             ]}
+            """;
+
     /** Writes landcover.tif and classes.yaml into {@code dir}; returns the run file's text. */
     static Path write(Path dir, int tileSize, String extraOutputs) throws IOException {
         Files.createDirectories(dir);
         GeoTiffWriter.writeInt(dir.resolve("landcover.tif"), grid(), GeoTiffWriter.IntType.UINT8, codes(),
                 OptionalInt.of(0));
         Files.writeString(dir.resolve("classes.yaml"), CLASSES);
+        Files.writeString(dir.resolve("districts.geojson"), DISTRICTS);
         return runFile(dir, tileSize, extraOutputs, "landcover.tif");
     }
 
@@ -69,6 +82,7 @@ final class CityFixture {
                 inputs:
                   land_cover: %s
                   classes: classes.yaml
+                  districts: districts.geojson
                 weather:
                   synthetic: {t_min_c: 20, t_max_c: 33, rel_humidity_pct: 45, wind_ms: 2, utc_offset: "+02:00"}
                 period:

@@ -61,7 +61,7 @@ class CityJobTest {
     void writesMapsTablesAndManifestAndNothingElse() {
         for (String f : List.of("maps/peak.tif", "maps/mean.tif", "maps/night_min.tif", "maps/peak_hour.tif",
                 "maps/degree_hours.tif", "maps/hourly_2026-07-15.tif", "tables/cells", "tables/material_hours",
-                "tables/cell_hours", "manifest.json")) {
+                "tables/cell_hours", "tables/district_hours", "manifest.json")) {
             assertTrue(Files.exists(out256.resolve(f)), f);
         }
         assertFalse(Files.exists(dir.resolve(".out256.partial")), "temporary folder removed");
@@ -113,7 +113,7 @@ class CityJobTest {
                     assertTrue(Float.isNaN(v[i]), "nodata cells read back as NaN (SIS maps the declared nodata)");
                     nodata++;
                 } else {
-                    assertEquals((float) r.getDouble(6), v[i], 0f, "cell " + i);
+                    assertEquals((float) r.<Double>getAs("peak_c").floatValue(), v[i], 0f, "cell " + i);
                 }
             }
             assertEquals(6 * 9, nodata, "the nodata corner");
@@ -136,10 +136,10 @@ class CityJobTest {
                 s.convection(), s.deepGroundK(), s.firstSampleHour(), s.thresholdK());
         Row r = spark.read().parquet(out256.resolve("tables/cells").toString())
                 .where("col = " + col + " and row = " + row).first();
-        assertEquals(point.statistics.peakK(0) - Physical.ZERO_CELSIUS_K, r.getDouble(6), 1e-9);
-        assertEquals(point.statistics.meanK(0) - Physical.ZERO_CELSIUS_K, r.getDouble(7), 1e-9);
-        assertEquals(point.statistics.nightMinK(0) - Physical.ZERO_CELSIUS_K, r.getDouble(8), 1e-9);
-        assertEquals("roof_membrane_dark", r.getString(5));
+        assertEquals(point.statistics.peakK(0) - Physical.ZERO_CELSIUS_K, r.<Double>getAs("peak_c"), 1e-9);
+        assertEquals(point.statistics.meanK(0) - Physical.ZERO_CELSIUS_K, r.<Double>getAs("mean_c"), 1e-9);
+        assertEquals(point.statistics.nightMinK(0) - Physical.ZERO_CELSIUS_K, r.<Double>getAs("night_min_c"), 1e-9);
+        assertEquals("roof_membrane_dark", r.<String>getAs("material"));
     }
 
     /** Tile sizes 64 and 256 give byte-identical maps and tables (no seams). */
@@ -158,6 +158,33 @@ class CityJobTest {
                 .exceptAll(spark.read().parquet(out64.resolve("tables/cells").toString())).count());
         assertEquals(0, spark.read().parquet(out64.resolve("tables/cells").toString())
                 .exceptAll(spark.read().parquet(out256.resolve("tables/cells").toString())).count());
+    }
+
+    /**
+     * The per-district hourly mean and 10/90 % quantiles agree with DuckDB's exact aggregates of
+     * the per-cell hourly rows (quantiles within the 0.5 K histogram bin).
+     */
+    @Test
+    void districtHoursAgreeWithExactAggregatesOfTheHourlyCells() throws Exception {
+        Class.forName("org.duckdb.DuckDBDriver");
+        String cells = out256.resolve("tables/cells") + "/*.parquet";
+        String hours = out256.resolve("tables/cell_hours") + "/*.parquet";
+        String dist = out256.resolve("tables/district_hours") + "/*.parquet";
+        String q = "with h as (select c.district, ch.time, ch.surface_c from read_parquet('" + hours + "') ch"
+                + " join read_parquet('" + cells + "') c using (col, row) where c.district is not null),"
+                + " e as (select district, time, avg(surface_c) m, quantile_cont(surface_c, 0.1) p10,"
+                + " quantile_cont(surface_c, 0.9) p90, count(*) n from h group by district, time)"
+                + " select count(*), max(abs(e.m - d.mean_c)), max(abs(e.p10 - d.p10_c)), max(abs(e.p90 - d.p90_c)),"
+                + " sum(abs(e.n - d.cells)) from e join read_parquet('" + dist + "') d using (district, time)";
+        try (Connection c = DriverManager.getConnection("jdbc:duckdb:"); Statement st = c.createStatement();
+                ResultSet rs = st.executeQuery(q)) {
+            rs.next();
+            assertEquals(2 * 24, rs.getLong(1), "two districts × 24 hours of the chosen day");
+            assertTrue(rs.getDouble(2) < 1e-4, "mean within float rounding: " + rs.getDouble(2));
+            assertTrue(rs.getDouble(3) <= 0.5, "p10 within a bin: " + rs.getDouble(3));
+            assertTrue(rs.getDouble(4) <= 0.5, "p90 within a bin: " + rs.getDouble(4));
+            assertEquals(0, rs.getLong(5), "cell counts");
+        }
     }
 
     /** An existing output folder is refused without --replace, and left as it was. */

@@ -9,6 +9,7 @@ import org.thermotile.model.constants.Physical;
 import org.thermotile.model.forcing.Forcing;
 import org.thermotile.model.materials.Material;
 import org.thermotile.model.stats.CellStatistics;
+import org.thermotile.model.stats.GroupHourStats;
 
 /**
  * One tile through a period: cells given as indices into a palette of materials (a tile has few
@@ -41,8 +42,10 @@ public final class TileSimulation {
         public final double[] degreeHoursAbove;
         /** Surface temperature [°C] at each requested hourly output hour: [hour][cell]. */
         public final float[][] hourlyC;
-        /** Σ surface temperature [K] per palette entry and sampled hour: [palette][hour]. */
-        public final double[][] paletteHourSumK;
+        /** Per palette entry and sampled hour: mean and histogram of surface temperature. */
+        public final GroupHourStats materialHours;
+        /** Per district and sampled hour (null without districts). */
+        public final GroupHourStats districtHours;
         /** Cells per palette entry. */
         public final long[] paletteCells;
         /** Largest |closure residual| of any cell, as a fraction of its gross flux. */
@@ -50,7 +53,7 @@ public final class TileSimulation {
         /** Cell-hours simulated (cells with a material × hours, spin-up included). */
         public final long cellHours;
 
-        Result(int cells, int hourly, int palette, int sampled) {
+        Result(int cells, int hourly, int palette, int districts, int sampled) {
             this.cells = cells;
             peakC = nanDoubles(cells);
             meanC = nanDoubles(cells);
@@ -62,7 +65,8 @@ public final class TileSimulation {
             for (int i = 0; i < hourly; i++) {
                 hourlyC[i] = nanArray(cells);
             }
-            paletteHourSumK = new double[palette][sampled];
+            materialHours = new GroupHourStats(palette, sampled);
+            districtHours = districts > 0 ? new GroupHourStats(districts, sampled) : null;
             paletteCells = new long[palette];
             maxClosureResidual = 0;
             cellHours = 0;
@@ -77,7 +81,8 @@ public final class TileSimulation {
             hoursAbove = r.hoursAbove;
             degreeHoursAbove = r.degreeHoursAbove;
             hourlyC = r.hourlyC;
-            paletteHourSumK = r.paletteHourSumK;
+            materialHours = r.materialHours;
+            districtHours = r.districtHours;
             paletteCells = r.paletteCells;
             maxClosureResidual = closure;
             this.cellHours = cellHours;
@@ -103,6 +108,16 @@ public final class TileSimulation {
      * @param materialIndex per cell, an index into {@code palette} or {@link #NO_MATERIAL}
      */
     public static Result run(Material[] palette, int[] materialIndex, Forcing forcing, Settings s) {
+        return run(palette, materialIndex, null, 0, forcing, s);
+    }
+
+    /**
+     * Runs the cells of one tile, also gathering hourly statistics per district.
+     *
+     * @param districtIndex per cell, a district index in {@code [0, districts)} or −1; null for none
+     */
+    public static Result run(Material[] palette, int[] materialIndex, int[] districtIndex, int districts,
+            Forcing forcing, Settings s) {
         int cells = materialIndex.length;
         int count = 0;
         for (int idx : materialIndex) {
@@ -112,7 +127,8 @@ public final class TileSimulation {
         }
         final int active = count;
         int sampled = Math.max(0, forcing.hours() - s.firstSampleHour());
-        Result out = new Result(cells, s.hourlyOutputHours().length, palette.length, sampled);
+        Result out = new Result(cells, s.hourlyOutputHours().length, palette.length,
+                districtIndex == null ? 0 : districts, sampled);
         if (active == 0) {
             return out;
         }
@@ -131,18 +147,25 @@ public final class TileSimulation {
         CellStatistics st = new CellStatistics(active, s.thresholdK());
         int[] hourly = s.hourlyOutputHours();
         int[] activeIdx = new int[active];
+        int[] activeDistrict = new int[active];
         for (int a = 0; a < active; a++) {
             activeIdx[a] = materialIndex[cellOf[a]];
+            activeDistrict[a] = districtIndex == null ? -1 : districtIndex[cellOf[a]];
         }
         BlockSimulation.run(block, sf, (hour, b) -> {
             if (hour < s.firstSampleHour()) {
                 return;
             }
             st.sample(b, forcing.localHourOfDay(hour), forcing.isNight(hour));
-            double[][] sums = out.paletteHourSumK;
             int hi = hour - s.firstSampleHour();
+            GroupHourStats mh = out.materialHours;
+            GroupHourStats dh = out.districtHours;
             for (int a = 0; a < active; a++) {
-                sums[activeIdx[a]][hi] += b.surfaceTempK(a);
+                double tc = b.surfaceTempK(a) - Physical.ZERO_CELSIUS_K;
+                mh.add(activeIdx[a], hi, tc);
+                if (dh != null && activeDistrict[a] >= 0) {
+                    dh.add(activeDistrict[a], hi, tc);
+                }
             }
             for (int i = 0; i < hourly.length; i++) {
                 if (hourly[i] == hour) {

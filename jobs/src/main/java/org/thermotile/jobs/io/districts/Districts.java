@@ -87,7 +87,8 @@ public record Districts(List<District> districts, int[] cellDistrict) {
         if (list.isEmpty()) {
             throw new UserInputException(file + ": holds no features. Fix: add district polygons or drop inputs.districts");
         }
-        return new Districts(List.copyOf(list), rasterise(list, grid, gf));
+        List<Geometry> geoms = list.stream().map(District::geometry).toList();
+        return new Districts(List.copyOf(list), assign(geoms, grid, 0, 0, grid.width(), grid.height()));
     }
 
     static void checkCrs(Path file, JsonNode root, RasterGrid grid) {
@@ -148,25 +149,33 @@ public record Districts(List<District> districts, int[] cellDistrict) {
         return gf.createLinearRing(cs);
     }
 
-    /** District index of each cell centre (first district wins), −1 outside every district. */
-    static int[] rasterise(List<District> list, RasterGrid grid, GeometryFactory gf) {
-        int w = grid.width();
-        int h = grid.height();
+    /** The districts' geometries in order (serialisable, for tile tasks). */
+    public List<Geometry> geometries() {
+        return districts.stream().map(District::geometry).toList();
+    }
+
+    /**
+     * District index of each cell centre of a window (row-major), first district wins, −1
+     * outside every district. Tile tasks call this on their own window.
+     */
+    public static int[] assign(List<Geometry> geoms, RasterGrid grid, int col0, int row0, int w, int h) {
+        GeometryFactory gf = new GeometryFactory();
         int[] out = new int[w * h];
         Arrays.fill(out, -1);
-        for (District d : list) {
-            PreparedGeometry pg = PreparedGeometryFactory.prepare(d.geometry());
-            Envelope env = d.geometry().getEnvelopeInternal();
-            int c0 = Math.max(0, (int) Math.floor((env.getMinX() - grid.originX()) / grid.pixelWidth()));
-            int c1 = Math.min(w - 1, (int) Math.ceil((env.getMaxX() - grid.originX()) / grid.pixelWidth()));
-            int r0 = Math.max(0, (int) Math.floor((env.getMaxY() - grid.originY()) / grid.pixelHeight()));
-            int r1 = Math.min(h - 1, (int) Math.ceil((env.getMinY() - grid.originY()) / grid.pixelHeight()));
+        for (int d = 0; d < geoms.size(); d++) {
+            Geometry g = geoms.get(d);
+            PreparedGeometry pg = PreparedGeometryFactory.prepare(g);
+            Envelope env = g.getEnvelopeInternal();
+            int c0 = Math.max(col0, (int) Math.floor((env.getMinX() - grid.originX()) / grid.pixelWidth()));
+            int c1 = Math.min(col0 + w - 1, (int) Math.ceil((env.getMaxX() - grid.originX()) / grid.pixelWidth()));
+            int r0 = Math.max(row0, (int) Math.floor((env.getMaxY() - grid.originY()) / grid.pixelHeight()));
+            int r1 = Math.min(row0 + h - 1, (int) Math.ceil((env.getMinY() - grid.originY()) / grid.pixelHeight()));
             for (int r = r0; r <= r1; r++) {
                 double y = grid.cellCentreY(r);
                 for (int c = c0; c <= c1; c++) {
-                    int i = r * w + c;
+                    int i = (r - row0) * w + (c - col0);
                     if (out[i] < 0 && pg.contains(gf.createPoint(new Coordinate(grid.cellCentreX(c), y)))) {
-                        out[i] = d.index();
+                        out[i] = d;
                     }
                 }
             }
