@@ -18,6 +18,7 @@ import java.util.List;
 import java.util.Map;
 import java.util.TreeMap;
 import java.util.stream.Stream;
+import com.fasterxml.jackson.databind.JsonNode;
 import org.apache.spark.sql.Row;
 import org.apache.spark.sql.SparkSession;
 import org.junit.jupiter.api.AfterAll;
@@ -27,6 +28,7 @@ import org.junit.jupiter.api.io.TempDir;
 import org.thermotile.jobs.config.RunFile;
 import org.thermotile.jobs.config.RunFileReader;
 import org.thermotile.jobs.io.raster.GeoTiffReader;
+import org.thermotile.jobs.testing.Gdal;
 import org.thermotile.model.balance.SingleSurface;
 import org.thermotile.model.constants.Physical;
 import org.thermotile.model.tile.TileSimulation;
@@ -184,6 +186,41 @@ class CityJobTest {
             assertTrue(rs.getDouble(3) <= 0.5, "p10 within a bin: " + rs.getDouble(3));
             assertTrue(rs.getDouble(4) <= 0.5, "p90 within a bin: " + rs.getDouble(4));
             assertEquals(0, rs.getLong(5), "cell counts");
+        }
+    }
+
+    /**
+     * GDAL reads every map with the input's EPSG code, geotransform and nodata value, and its
+     * statistics equal those of the same cells in the Parquet summary (DuckDB).
+     */
+    @Test
+    void gdalReadsTheMapsWithTheInputGridAndTheSummarysStatistics() throws Exception {
+        Gdal.require("gdalinfo");
+        Class.forName("org.duckdb.DuckDBDriver");
+        String cells = out256.resolve("tables/cells") + "/*.parquet";
+        Map<String, String> column = Map.of("peak", "peak_c", "mean", "mean_c", "night_min", "night_min_c",
+                "peak_hour", "peak_hour", "degree_hours", "degree_hours");
+        try (Connection c = DriverManager.getConnection("jdbc:duckdb:"); Statement st = c.createStatement()) {
+            for (var e : column.entrySet()) {
+                JsonNode info = Gdal.info(out256.resolve("maps/" + e.getKey() + ".tif"));
+                assertTrue(info.path("coordinateSystem").path("wkt").asText().contains("ID[\"EPSG\",32632]"), e.getKey());
+                JsonNode gt = info.path("geoTransform");
+                assertEquals(CityFixture.X0, gt.get(0).asDouble(), 0);
+                assertEquals(CityFixture.CELL, gt.get(1).asDouble(), 0);
+                assertEquals(0, gt.get(2).asDouble(), 0);
+                assertEquals(CityFixture.Y0, gt.get(3).asDouble(), 0);
+                assertEquals(-CityFixture.CELL, gt.get(5).asDouble(), 0);
+                JsonNode band = info.path("bands").get(0);
+                assertEquals(CityJob.MAP_NODATA, band.path("noDataValue").asDouble(), 0, e.getKey());
+                // Statistics of the float32 values of the same cells.
+                try (ResultSet rs = st.executeQuery("select min(v), max(v), avg(v) from (select cast("
+                        + e.getValue() + " as float) v from read_parquet('" + cells + "'))")) {
+                    rs.next();
+                    assertEquals(rs.getDouble(1), band.path("minimum").asDouble(), 1e-3, e.getKey() + " min");
+                    assertEquals(rs.getDouble(2), band.path("maximum").asDouble(), 1e-3, e.getKey() + " max");
+                    assertEquals(rs.getDouble(3), band.path("mean").asDouble(), 1e-3, e.getKey() + " mean");
+                }
+            }
         }
     }
 
