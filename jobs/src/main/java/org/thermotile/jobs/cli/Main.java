@@ -29,8 +29,19 @@ public final class Main {
         return newCommandLine().execute(args);
     }
 
+    /** Runs {@code args} on a command line whose streams a test has set; returns the exit status. */
+    public static int executeWith(CommandLine cl, String... args) {
+        installHandler(cl);
+        return cl.execute(args);
+    }
+
     static CommandLine newCommandLine() {
         CommandLine cl = new CommandLine(new Main());
+        installHandler(cl);
+        return cl;
+    }
+
+    private static void installHandler(CommandLine cl) {
         cl.setExecutionExceptionHandler((ex, cmd, parsed) -> {
             PrintWriter err = cmd.getErr();
             if (isUserError(ex)) {
@@ -47,7 +58,6 @@ public final class Main {
             err.flush();
             return 1;
         });
-        return cl;
     }
 
     static boolean isUserError(Throwable ex) {
