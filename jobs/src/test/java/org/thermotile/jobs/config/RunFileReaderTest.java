@@ -65,12 +65,12 @@ class RunFileReaderTest {
         RunFile rf = RunFileReader.read(EXAMPLE);
         Path dir = EXAMPLE.toAbsolutePath().normalize().getParent();
         assertEquals("riverside-hot-week", rf.name());
-        assertEquals(45.07, rf.site().latitudeDeg());
-        assertEquals(7.68, rf.site().longitudeDeg());
-        assertEquals(240.0, rf.site().elevationM());
+        assertEquals(45.1436, rf.site().latitudeDeg());
+        assertEquals(9.0229, rf.site().longitudeDeg());
+        assertEquals(70.0, rf.site().elevationM());
         assertEquals(dir.resolve("landcover.tif").toString(), rf.inputs().landCover());
-        assertEquals("worldcover", rf.inputs().classes());
-        assertTrue(rf.inputs().classesIsBuiltIn());
+        assertEquals(dir.resolve("classes.yaml").toString(), rf.inputs().classes());
+        assertFalse(rf.inputs().classesIsBuiltIn());
         assertNull(rf.inputs().materials());
         assertEquals(dir.resolve("heights.tif").toString(), rf.inputs().heights());
         assertEquals(dir.resolve("districts.geojson").toString(), rf.inputs().districts());
@@ -85,7 +85,7 @@ class RunFileReaderTest {
         assertEquals("mcadams", rf.physics().convection().model());
         assertTrue(Double.isNaN(rf.physics().deepGroundTempC()));
         assertEquals(List.of(MapKind.PEAK, MapKind.MEAN, MapKind.NIGHT_MIN, MapKind.PEAK_HOUR,
-                MapKind.DEGREE_HOURS, MapKind.HOURS_ABOVE), rf.outputs().maps());
+                MapKind.DEGREE_HOURS), rf.outputs().maps());
         assertEquals(45.0, rf.outputs().thresholdC());
         assertEquals(List.of(LocalDate.of(2026, 7, 16)), rf.outputs().hourlyDays());
         assertEquals(256, rf.tiling().tileSize());
