@@ -20,7 +20,13 @@ public final class Main {
     /** Exit status for bad input or usage. */
     public static final int BAD_INPUT = 2;
 
+    /** Kept strongly reachable so the level set on it holds (JUL keeps loggers weakly). */
+    private static final java.util.logging.Logger SIS_LOG = java.util.logging.Logger.getLogger("org.apache.sis");
+
     public static void main(String[] args) {
+        // Apache SIS warns once per JVM that its optional EPSG data folder is not configured;
+        // thermotile does not use it (UTM zones are built in), so the warning is noise here.
+        SIS_LOG.setLevel(java.util.logging.Level.SEVERE);
         System.exit(execute(args));
     }
 

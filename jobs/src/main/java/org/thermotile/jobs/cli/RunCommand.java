@@ -64,7 +64,8 @@ final class RunCommand implements Callable<Integer> {
         console.println("outputs: " + s.outDir());
         console.println("  maps/      " + String.join(" ", s.maps().stream()
                 .map(m -> m.substring("maps/".length())).toList()));
-        console.println("  tables/    cells, material_hours (Parquet)");
+        console.println("  tables/    cells, material_hours" + (p.districtNames().isEmpty() ? "" : ", district_hours")
+                + (p.hourlyEpochSeconds().length > 0 ? ", cell_hours" : "") + " (Parquet)");
         console.println("  manifest.json");
         console.println("Surface temperature is not air temperature nor a heat-health index.");
         return s;
