@@ -93,32 +93,56 @@ public final class CityJob {
             PrintStream console, long t0) throws IOException {
         JavaSparkContext jsc = JavaSparkContext.fromSparkContext(spark.sparkContext());
         Broadcast<TileJobSpec> spec = jsc.broadcast(p.spec());
+        ScenarioPlanner.Plan plan = p.plan();
+        Broadcast<ScenarioPlanner.Plan> planB = jsc.broadcast(plan);
         List<TileSpec> tiles = p.tiles();
+        List<ScenarioVariant> variants = plan.variants();
+        // One task per (variant, tile); the list order fixes task numbers and so part-file names.
+        List<Work> work = new ArrayList<>();
+        for (int v = 0; v < variants.size(); v++) {
+            for (TileSpec t : tiles) {
+                work.add(new Work(v, t));
+            }
+        }
         ProgressListener progress = null;
         if (!opt.quiet()) {
-            double perTile = (double) p.cellHours() / Math.max(1, tiles.size());
-            progress = new ProgressListener(tiles.size(), perTile, console);
+            double perTask = (double) p.cellHours() / Math.max(1, tiles.size());
+            progress = new ProgressListener(work.size(), perTask, console);
             spark.sparkContext().addSparkListener(progress);
-            console.printf("simulating %d cells × %d hours in %d tiles%n", p.activeCells(),
-                    p.spec().forcing().hours() - 1, tiles.size());
+            console.printf("simulating %d cells × %d hours in %d tiles%s%n", p.activeCells(),
+                    p.spec().forcing().hours() - 1, tiles.size(),
+                    variants.size() > 1 ? " × " + variants.size() + " variants (baseline and "
+                            + (variants.size() - 1) + " scenarios)" : "");
         }
-        JavaRDD<TileOutput> results = jsc.parallelize(tiles, tiles.size())
-                .map(t -> TileTask.run(t, spec.value()))
+        JavaRDD<TileOutput> results = jsc.parallelize(work, work.size())
+                .map(w -> {
+                    ScenarioPlanner.Plan pl = planB.value();
+                    TileJobSpec sp = spec.value();
+                    ScenarioVariant v = pl.variants().get(w.variant());
+                    return TileTask.run(w.tile(), sp, v, pl.units(), pl.roofs());
+                })
                 .persist(StorageLevel.MEMORY_AND_DISK());
         List<TileOutput> collected = new ArrayList<>(results.collect());
         if (progress != null) {
             spark.sparkContext().removeSparkListener(progress);
         }
-        collected.sort(Comparator.comparingInt(o -> o.tile().index()));
         double simSeconds = (System.nanoTime() - t0) / 1e9;
 
-        Files.createDirectories(tmp.resolve("maps"));
         Files.createDirectories(tmp.resolve("tables"));
-        List<String> maps = MapOutputs.write(p, collected, tmp.resolve("maps"));
-        TableOutputs.writeCells(spark, p, results, tmp.resolve("tables/cells"));
-        TableOutputs.writeMaterialHours(spark, p, collected, tmp.resolve("tables/material_hours"));
+        List<String> maps = new ArrayList<>();
+        for (ScenarioVariant v : variants) {
+            List<TileOutput> mine = collected.stream().filter(o -> o.variant().equals(v.name()))
+                    .sorted(Comparator.comparingInt(o -> o.tile().index())).toList();
+            Path mapsDir = v.isBaseline() ? tmp.resolve("maps") : tmp.resolve("scenarios").resolve(v.name()).resolve("maps");
+            Files.createDirectories(mapsDir);
+            String prefix = tmp.relativize(mapsDir).toString().replace('\\', '/') + "/";
+            MapOutputs.write(p, mine, mapsDir).forEach(m -> maps.add(prefix + m.substring("maps/".length())));
+        }
+        List<String> variantNames = variants.stream().map(ScenarioVariant::name).toList();
+        TableOutputs.writeCells(spark, p, variantNames, results, tmp.resolve("tables/cells"));
+        TableOutputs.writeMaterialHours(spark, p, variants, collected, tmp.resolve("tables/material_hours"));
         if (!p.districtNames().isEmpty()) {
-            TableOutputs.writeDistrictHours(spark, p, collected, tmp.resolve("tables/district_hours"));
+            TableOutputs.writeDistrictHours(spark, p, variantNames, collected, tmp.resolve("tables/district_hours"));
         }
         if (p.hourlyEpochSeconds().length > 0) {
             TableOutputs.writeCellHours(spark, p, results, tmp.resolve("tables/cell_hours"));
@@ -131,7 +155,14 @@ public final class CityJob {
         Summary s = new Summary(tmp, p.activeCells(), cellHours, wall, cellHours / Math.max(simSeconds, 1e-9),
                 maxClosure, maps);
         Manifest.write(p, s, simSeconds, tmp.resolve("manifest.json"));
+        if (variants.size() > 1) {
+            Comparison.write(spark, p, tmp);
+        }
         return s;
+    }
+
+    /** One task: a variant (index into the plan) and a tile. */
+    record Work(int variant, TileSpec tile) implements java.io.Serializable {
     }
 
     static void deleteQuietly(Path dir) {
@@ -140,6 +171,11 @@ public final class CityJob {
         } catch (IOException ignored) {
             // best effort: the failure being reported matters more
         }
+    }
+
+    /** Deletes a folder and everything in it (for commands that rewrite a part of a run folder). */
+    public static void deleteTreePublic(Path dir) throws IOException {
+        deleteTree(dir);
     }
 
     static void deleteTree(Path dir) throws IOException {

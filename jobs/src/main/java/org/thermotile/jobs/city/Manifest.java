@@ -64,6 +64,28 @@ final class Manifest {
         if (p.hourlyEpochSeconds().length > 0) {
             outs.add("tables/cell_hours");
         }
+        ObjectNode scen = root.putObject("scenarios");
+        scen.put("cell_area_m2", p.grid().pixelAreaM2());
+        scen.put("threshold_c", p.run().outputs().thresholdC());
+        var dn = scen.putArray("districts");
+        p.districtNames().forEach(dn::add);
+        var list = scen.putArray("list");
+        for (ScenarioPlanner.Treated t : p.plan().treated()) {
+            ObjectNode o = list.addObject();
+            o.put("name", t.scenario());
+            var def = p.run().scenarios().stream().filter(x -> x.name().equals(t.scenario())).findFirst().orElseThrow();
+            o.put("origin", def.origin());
+            o.put("changes", def.changes().toString());
+            o.put("has_cost", t.hasCost());
+            var tc = o.putObject("treated_cells");
+            var cost = o.putObject("cost");
+            int nd = p.districtNames().size();
+            for (int d = 0; d <= nd; d++) {
+                String key = d < nd ? p.districtNames().get(d) : "(outside districts)";
+                tc.put(key, t.cells(d));
+                cost.put(key, t.cost(d, p.grid().pixelAreaM2()));
+            }
+        }
         var notes = root.putArray("notes");
         p.notes().forEach(notes::add);
         ObjectNode timing = root.putObject("timing");

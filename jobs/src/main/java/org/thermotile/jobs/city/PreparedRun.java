@@ -13,17 +13,26 @@ import org.thermotile.jobs.io.raster.RasterGrid;
  * @param tiles         the tiles, row-major
  * @param paletteLabels per palette entry, the material id plus any overrides ("asphalt_aged")
  * @param districtNames district names in file order (empty without districts)
+ * @param knownMaterials the library plus the user's materials file, by id
  * @param codeCounts    land-cover code → cells (nodata excluded)
  * @param fallbackCodes codes that took the class table's fallback material, with their counts
  * @param inputFiles    every input file read, for the manifest's hashes (label → location)
  * @param sampleEpochSeconds time of each sampled (counted) hour
  * @param hourlyEpochSeconds time of each hour written as an hourly output
  * @param notes         things worth telling the user (filled weather gaps, fallbacks)
+ * @param plan          the baseline and scenarios to run (see {@link RunPreparer#prepare})
  */
 public record PreparedRun(RunFile run, RasterGrid grid, TileJobSpec spec, List<TileSpec> tiles,
-        List<String> paletteLabels, List<String> districtNames, Map<Integer, Long> codeCounts, Map<Integer, Long> fallbackCodes,
+        List<String> paletteLabels, List<String> districtNames,
+        Map<String, org.thermotile.model.materials.Material> knownMaterials, Map<Integer, Long> codeCounts, Map<Integer, Long> fallbackCodes,
         Map<String, String> inputFiles, long[] sampleEpochSeconds, long[] hourlyEpochSeconds,
-        List<String> notes) {
+        List<String> notes, ScenarioPlanner.Plan plan) {
+
+    /** This run with its scenarios resolved (see {@link ScenarioPlanner#plan}). */
+    public PreparedRun withPlan(ScenarioPlanner.Plan plan) {
+        return new PreparedRun(run, grid, spec, tiles, paletteLabels, districtNames, knownMaterials, codeCounts,
+                fallbackCodes, inputFiles, sampleEpochSeconds, hourlyEpochSeconds, notes, plan);
+    }
 
     /** Cells with a material. */
     public long activeCells() {

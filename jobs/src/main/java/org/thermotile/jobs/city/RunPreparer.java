@@ -50,7 +50,27 @@ public final class RunPreparer {
     /** Largest land-cover code accepted (16-bit rasters). */
     static final int MAX_CODE = 65_535;
 
+    /**
+     * Reads and checks every input, then resolves the scenarios (district names, materials,
+     * adoption cuts). A sweep larger than its {@code max_scenarios} needs {@code confirmSweep}.
+     */
+    public static PreparedRun prepare(RunFile run, boolean confirmSweep) {
+        if (run.scenarios().size() > run.sweepMax() && !confirmSweep) {
+            throw new UserInputException(run.source() + ": the scenarios and sweep make " + run.scenarios().size()
+                    + " scenarios, more than sweep.max_scenarios = " + run.sweepMax() + ". Fix: narrow the sweep's "
+                    + "axes, raise max_scenarios, or confirm with --confirm-sweep");
+        }
+        PreparedRun p = prepareInputs(run);
+        return p.withPlan(ScenarioPlanner.plan(p, run.scenarios()));
+    }
+
+    /** {@link #prepare(RunFile, boolean)} without confirming a large sweep. */
     public static PreparedRun prepare(RunFile run) {
+        return prepare(run, false);
+    }
+
+    /** Reads and checks every input (scenarios not yet resolved). */
+    static PreparedRun prepareInputs(RunFile run) {
         List<String> notes = new ArrayList<>();
         Map<String, String> inputs = new LinkedHashMap<>();
         RunFile.Inputs in = run.inputs();
@@ -220,13 +240,14 @@ public final class RunPreparer {
                 convection, deepK, firstSample, run.outputs().thresholdK(),
                 hourlyIdx.stream().mapToInt(Integer::intValue).toArray());
         TileJobSpec spec = new TileJobSpec(landCover.toString(), grid, palette.toArray(new Material[0]), lut,
-                districts == null ? List.of() : districts.geometries(), used, settings);
+                districts == null ? List.of() : districts.geometries(), used, settings,
+                in.heights() == null ? null : localPath(in.heights(), "inputs.heights").toString());
         List<String> districtNames = districts == null ? List.of()
                 : districts.districts().stream().map(Districts.District::name).toList();
         return new PreparedRun(run, grid, spec, TileSpec.plan(grid.width(), grid.height(), tileSize),
-                List.copyOf(labels), districtNames, counts, fallback, inputs,
+                List.copyOf(labels), districtNames, Map.copyOf(known), counts, fallback, inputs,
                 samples.stream().mapToLong(Long::longValue).toArray(),
-                hourlyTimes.stream().mapToLong(Long::longValue).toArray(), notes);
+                hourlyTimes.stream().mapToLong(Long::longValue).toArray(), notes, null);
     }
 
     /** The forcing's first {@code hours} hours. */

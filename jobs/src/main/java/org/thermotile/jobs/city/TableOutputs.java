@@ -29,6 +29,7 @@ final class TableOutputs {
     private TableOutputs() {}
 
     static final StructType CELLS = new StructType()
+            .add("scenario", DataTypes.StringType, false)
             .add("col", DataTypes.IntegerType, false)
             .add("row", DataTypes.IntegerType, false)
             .add("x", DataTypes.DoubleType, false)
@@ -44,19 +45,25 @@ final class TableOutputs {
             .add("degree_hours", DataTypes.DoubleType, false);
 
     static final StructType CELL_HOURS = new StructType()
+            .add("scenario", DataTypes.StringType, false)
             .add("col", DataTypes.IntegerType, false)
             .add("row", DataTypes.IntegerType, false)
             .add("time", DataTypes.StringType, false)
             .add("surface_c", DataTypes.FloatType, false);
 
     /** Per-cell summary: one row per cell with a material, ordered by tile then row-major. */
-    static void writeCells(SparkSession spark, PreparedRun p, JavaRDD<TileOutput> results, Path dir) {
+    static void writeCells(SparkSession spark, PreparedRun p, List<String> variants, JavaRDD<TileOutput> results,
+            Path dir) {
         RasterGrid grid = p.grid();
-        List<String> labels = p.paletteLabels();
+        java.util.Map<String, List<String>> labelsOf = new java.util.HashMap<>();
+        for (ScenarioVariant v : p.plan().variants()) {
+            labelsOf.put(v.name(), labels(p, v));
+        }
         List<String> districts = p.districtNames();
         JavaRDD<Row> rows = results.flatMap(o -> {
             TileSpec t = o.tile();
             TileSimulation.Result r = o.result();
+            List<String> labels = labelsOf.get(o.variant());
             List<Row> out = new ArrayList<>();
             for (int i = 0; i < t.cells(); i++) {
                 int idx = o.paletteIndex()[i];
@@ -66,7 +73,7 @@ final class TableOutputs {
                 int col = t.col0() + i % t.width();
                 int row = t.row0() + i / t.width();
                 double night = r.nightMinC[i];
-                out.add(RowFactory.create(col, row, grid.cellCentreX(col), grid.cellCentreY(row),
+                out.add(RowFactory.create(o.variant(), col, row, grid.cellCentreX(col), grid.cellCentreY(row),
                         o.codes()[i], labels.get(idx),
                         o.districtIndex() == null || o.districtIndex()[i] < 0 ? null
                                 : districts.get(o.districtIndex()[i]),
@@ -76,37 +83,67 @@ final class TableOutputs {
             }
             return out.iterator();
         });
-        spark.createDataFrame(rows, CELLS).write().mode(SaveMode.ErrorIfExists).parquet(dir.toUri().toString());
+        spark.createDataFrame(rows, CELLS).write().mode(SaveMode.ErrorIfExists).partitionBy("scenario")
+                .parquet(dir.toUri().toString());
         renameParts(dir);
     }
 
+    /**
+     * Material labels of a variant's palette: the run's labels, then each changed material's id
+     * marked "(treated)".
+     */
+    static List<String> labels(PreparedRun p, ScenarioVariant v) {
+        List<String> l = new ArrayList<>(p.paletteLabels());
+        for (int i = l.size(); i < v.palette().length; i++) {
+            l.add(v.palette()[i].id() + " (treated)");
+        }
+        return l;
+    }
+
     /** Per-material hourly mean and 10–90 % band of surface temperature (diurnal curves). */
-    static void writeMaterialHours(SparkSession spark, PreparedRun p, List<TileOutput> tiles, Path dir) {
+    static void writeMaterialHours(SparkSession spark, PreparedRun p, List<ScenarioVariant> variants,
+            List<TileOutput> tiles, Path dir) {
+        List<Row> rows = new ArrayList<>();
+        for (ScenarioVariant v : variants) {
+            GroupHourStats all = merged(tiles, v.name(), o -> o.result().materialHours);
+            // Entries sharing a label (several changed copies of one material) are one curve.
+            List<String> labels = labels(p, v);
+            List<String> distinct = labels.stream().distinct().toList();
+            int[] to = labels.stream().mapToInt(distinct::indexOf).toArray();
+            rows.addAll(groupHourRows(p, v.name(), all.regroup(to, distinct.size()), distinct));
+        }
+        writeGroupTable(spark, rows, "material", dir);
+    }
+
+    static GroupHourStats merged(List<TileOutput> tiles, String variant,
+            java.util.function.Function<TileOutput, GroupHourStats> f) {
         GroupHourStats all = null;
         for (TileOutput o : tiles) {
-            if (all == null) {
-                all = new GroupHourStats(o.result().materialHours.groups, o.result().materialHours.hours);
+            if (!o.variant().equals(variant)) {
+                continue;
             }
-            all.merge(o.result().materialHours);
+            GroupHourStats g = f.apply(o);
+            if (all == null) {
+                all = new GroupHourStats(g.groups, g.hours);
+            }
+            all.merge(g);
         }
-        writeGroupHours(spark, p, all, p.paletteLabels(), "material", dir);
+        return all;
     }
 
     /** Per-district hourly mean and 10–90 % band of surface temperature. */
-    static void writeDistrictHours(SparkSession spark, PreparedRun p, List<TileOutput> tiles, Path dir) {
-        GroupHourStats all = null;
-        for (TileOutput o : tiles) {
-            GroupHourStats d = o.result().districtHours;
-            if (all == null) {
-                all = new GroupHourStats(d.groups, d.hours);
-            }
-            all.merge(d);
+    static void writeDistrictHours(SparkSession spark, PreparedRun p, List<String> variants,
+            List<TileOutput> tiles, Path dir) {
+        List<Row> rows = new ArrayList<>();
+        for (String v : variants) {
+            rows.addAll(groupHourRows(p, v, merged(tiles, v, o -> o.result().districtHours), p.districtNames()));
         }
-        writeGroupHours(spark, p, all, p.districtNames(), "district", dir);
+        writeGroupTable(spark, rows, "district", dir);
     }
 
     static StructType groupHours(String key) {
         return new StructType()
+                .add("scenario", DataTypes.StringType, false)
                 .add(key, DataTypes.StringType, false)
                 .add("time", DataTypes.StringType, false)
                 .add("local_hour", DataTypes.IntegerType, false)
@@ -116,8 +153,7 @@ final class TableOutputs {
                 .add("cells", DataTypes.LongType, false);
     }
 
-    static void writeGroupHours(SparkSession spark, PreparedRun p, GroupHourStats st, List<String> names,
-            String key, Path dir) {
+    static List<Row> groupHourRows(PreparedRun p, String variant, GroupHourStats st, List<String> names) {
         long[] samples = p.sampleEpochSeconds();
         java.time.ZoneOffset zo = java.time.ZoneOffset.ofTotalSeconds(p.spec().forcing().utcOffsetSeconds);
         List<Row> rows = new ArrayList<>();
@@ -128,12 +164,16 @@ final class TableOutputs {
             for (int h = 0; h < samples.length; h++) {
                 java.time.OffsetDateTime t = java.time.OffsetDateTime.ofInstant(
                         java.time.Instant.ofEpochSecond(samples[h]), zo);
-                rows.add(RowFactory.create(names.get(g), t.toString(), t.getHour(), st.meanC(g, h),
+                rows.add(RowFactory.create(variant, names.get(g), t.toString(), t.getHour(), st.meanC(g, h),
                         st.quantileC(g, h, 0.1), st.quantileC(g, h, 0.9), st.count(g, h)));
             }
         }
+        return rows;
+    }
+
+    static void writeGroupTable(SparkSession spark, List<Row> rows, String key, Path dir) {
         spark.createDataFrame(rows, groupHours(key)).coalesce(1).write().mode(SaveMode.ErrorIfExists)
-                .parquet(dir.toUri().toString());
+                .partitionBy("scenario").parquet(dir.toUri().toString());
         renameParts(dir);
     }
 
@@ -152,13 +192,15 @@ final class TableOutputs {
                 float[] v = o.result().hourlyC[h];
                 for (int i = 0; i < t.cells(); i++) {
                     if (o.paletteIndex()[i] >= 0) {
-                        out.add(RowFactory.create(t.col0() + i % t.width(), t.row0() + i / t.width(), times[h], v[i]));
+                        out.add(RowFactory.create(o.variant(), t.col0() + i % t.width(), t.row0() + i / t.width(),
+                                times[h], v[i]));
                     }
                 }
             }
             return out.iterator();
         });
-        spark.createDataFrame(rows, CELL_HOURS).write().mode(SaveMode.ErrorIfExists).parquet(dir.toUri().toString());
+        spark.createDataFrame(rows, CELL_HOURS).write().mode(SaveMode.ErrorIfExists).partitionBy("scenario")
+                .parquet(dir.toUri().toString());
         renameParts(dir);
     }
 
@@ -169,6 +211,10 @@ final class TableOutputs {
         try (Stream<Path> s = Files.list(dir)) {
             for (Path f : s.sorted().toList()) {
                 String n = f.getFileName().toString();
+                if (Files.isDirectory(f)) {
+                    renameParts(f);
+                    continue;
+                }
                 if (n.endsWith(".crc")) {
                     Files.delete(f);
                     continue;

@@ -15,8 +15,9 @@ import org.thermotile.model.tile.TileSimulation;
  * @param codeToPalette per land-cover code 0…65535, the palette index, or
  *                      {@link TileSimulation#NO_MATERIAL} (nodata)
  * @param districts     district polygons in the grid's CRS (empty without districts)
+ * @param heights       heights raster location, or null
  */
 public record TileJobSpec(String landCover, RasterGrid grid, Material[] palette, int[] codeToPalette,
-        List<Geometry> districts, Forcing forcing, TileSimulation.Settings settings)
+        List<Geometry> districts, Forcing forcing, TileSimulation.Settings settings, String heights)
         implements java.io.Serializable {
 }

@@ -38,6 +38,16 @@ final class CheckCommand implements Callable<Integer> {
         out.printf(Locale.ROOT, "  materials: %s%n", String.join(", ", p.paletteLabels()));
         out.printf(Locale.ROOT, "  %d simulated hours (%d counted), %.3g cell-hours%n",
                 p.spec().forcing().hours() - 1, p.sampleEpochSeconds().length, (double) p.cellHours());
+        for (var t : p.plan().treated()) {
+            long cells = 0;
+            for (int d = 0; d <= p.districtNames().size(); d++) {
+                cells += t.cells(d);
+            }
+            out.printf(Locale.ROOT, "  scenario %s: %d cells treated%s%n", t.scenario(), cells,
+                    t.hasCost() ? String.format(Locale.ROOT, ", cost %.0f", java.util.stream.IntStream
+                            .rangeClosed(0, p.districtNames().size())
+                            .mapToDouble(d -> t.cost(d, p.grid().pixelAreaM2())).sum()) : "");
+        }
         p.notes().forEach(n -> out.println("  note: " + n));
         out.flush();
         return 0;

@@ -40,17 +40,20 @@ final class RunCommand implements Callable<Integer> {
     @Option(names = "--quiet", description = "no progress line")
     boolean quiet;
 
+    @Option(names = "--confirm-sweep", description = "run a sweep larger than its max_scenarios")
+    boolean confirmSweep;
+
     @Override
     public Integer call() {
         RunFile run = RunFileReader.read(runFile);
         Path dir = out != null ? out : Path.of("runs", run.name());
-        execute(run, dir, master, threads, replace, quiet, System.out);
+        execute(run, dir, master, threads, replace, quiet, confirmSweep, System.out);
         return 0;
     }
 
     static CityJob.Summary execute(RunFile run, Path dir, String master, int threads, boolean replace,
-            boolean quiet, PrintStream console) {
-        PreparedRun p = RunPreparer.prepare(run);
+            boolean quiet, boolean confirmSweep, PrintStream console) {
+        PreparedRun p = RunPreparer.prepare(run, confirmSweep);
         if (!quiet) {
             console.printf(Locale.ROOT, "%s: %d × %d cells of %.1f m (EPSG:%d), %d materials, %d counted hours%n",
                     run.name(), p.grid().width(), p.grid().height(), p.grid().pixelWidth(), p.grid().epsg(),
@@ -66,6 +69,10 @@ final class RunCommand implements Callable<Integer> {
                 .map(m -> m.substring("maps/".length())).toList()));
         console.println("  tables/    cells, material_hours" + (p.districtNames().isEmpty() ? "" : ", district_hours")
                 + (p.hourlyEpochSeconds().length > 0 ? ", cell_hours" : "") + " (Parquet)");
+        if (!run.scenarios().isEmpty()) {
+            console.println("  scenarios/ " + run.scenarios().size() + " programmes, maps and delta maps each");
+            console.println("  comparison/summary.md, ranking.csv, districts.csv");
+        }
         console.println("  manifest.json");
         console.println("Surface temperature is not air temperature nor a heat-health index.");
         return s;

@@ -39,9 +39,14 @@ import org.thermotile.model.constants.Physical;
  * @param outputs  which maps and hourly grids to write
  * @param tiling   how the grid is cut into tiles
  * @param reserved raw sections kept for later features ({@link RunFileReader#RESERVED_KEYS}), by key
+ *                 (scenarios and sweep among them, as written)
+ * @param scenarios the programmes to compare with the baseline (from {@code scenarios:} and
+ *                  {@code sweep:}), in file order; empty when there are none
+ * @param sweepMax  the sweep's {@code max_scenarios}: more scenarios need confirmation
  */
 public record RunFile(String source, String name, Site site, Inputs inputs, Weather weather,
-        Period period, Physics physics, Outputs outputs, Tiling tiling, Map<String, JsonNode> reserved) {
+        Period period, Physics physics, Outputs outputs, Tiling tiling, Map<String, JsonNode> reserved,
+        List<Scenario> scenarios, int sweepMax) {
 
     public RunFile {
         Objects.requireNonNull(name, "name");
@@ -55,6 +60,7 @@ public record RunFile(String source, String name, Site site, Inputs inputs, Weat
         TreeMap<String, JsonNode> copy = new TreeMap<>();
         reserved.forEach((k, v) -> copy.put(k, v.deepCopy()));
         reserved = Collections.unmodifiableMap(copy);
+        scenarios = scenarios == null ? List.of() : List.copyOf(scenarios);
     }
 
     /** The raw section {@code key} (a deep copy: Jackson trees are mutable), or null if absent. */

@@ -156,10 +156,12 @@ public final class RunFileReader {
                 reserved.put(k, top.raw(k));
             }
         }
+        ScenariosReader.Result sc = ScenariosReader.read(doc, top.raw("scenarios"), top.raw("sweep"));
         if (doc.hasProblems()) {
             return null;
         }
-        return new RunFile(source, name, site, inputs, weather, period, physics, outputs, tiling, reserved);
+        return new RunFile(source, name, site, inputs, weather, period, physics, outputs, tiling, reserved,
+                sc.scenarios(), sc.sweepMax());
     }
 
     // ---------------------------------------------------------------- sections

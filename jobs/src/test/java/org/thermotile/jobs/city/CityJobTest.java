@@ -75,7 +75,7 @@ class CityJobTest {
         Class.forName("org.duckdb.DuckDBDriver");
         try (Connection c = DriverManager.getConnection("jdbc:duckdb:"); Statement st = c.createStatement()) {
             for (String t : List.of("cells", "material_hours", "cell_hours")) {
-                String glob = out256.resolve("tables/" + t).toString() + "/*.parquet";
+                String glob = out256.resolve("tables/" + t).toString() + "/*/*.parquet";
                 Row spk = spark.read().parquet(out256.resolve("tables/" + t).toString())
                         .selectExpr("count(*)", t.equals("cells") ? "avg(peak_c)" : t.equals("cell_hours")
                                 ? "avg(surface_c)" : "avg(mean_c)").first();
@@ -88,7 +88,7 @@ class CityJobTest {
             }
             long expectCells = prepared.activeCells();
             try (ResultSet rs = st.executeQuery("select count(*) from read_parquet('"
-                    + out256.resolve("tables/cells") + "/*.parquet')")) {
+                    + out256.resolve("tables/cells") + "/*/*.parquet')")) {
                 rs.next();
                 assertEquals(expectCells, rs.getLong(1));
             }
@@ -100,7 +100,7 @@ class CityJobTest {
     void mapsAgreeWithTheParquetSummary() {
         Map<Long, Row> byCell = new TreeMap<>();
         for (Row r : spark.read().parquet(out256.resolve("tables/cells").toString()).collectAsList()) {
-            byCell.put((long) r.getInt(1) * CityFixture.W + r.getInt(0), r);
+            byCell.put((long) r.<Integer>getAs("row") * CityFixture.W + r.<Integer>getAs("col"), r);
         }
         try (GeoTiffReader peak = GeoTiffReader.openSingleBand(out256.resolve("maps/peak.tif"))) {
             assertEquals(CityFixture.grid().originX(), peak.grid().originX());
@@ -169,9 +169,9 @@ class CityJobTest {
     @Test
     void districtHoursAgreeWithExactAggregatesOfTheHourlyCells() throws Exception {
         Class.forName("org.duckdb.DuckDBDriver");
-        String cells = out256.resolve("tables/cells") + "/*.parquet";
-        String hours = out256.resolve("tables/cell_hours") + "/*.parquet";
-        String dist = out256.resolve("tables/district_hours") + "/*.parquet";
+        String cells = out256.resolve("tables/cells") + "/*/*.parquet";
+        String hours = out256.resolve("tables/cell_hours") + "/*/*.parquet";
+        String dist = out256.resolve("tables/district_hours") + "/*/*.parquet";
         String q = "with h as (select c.district, ch.time, ch.surface_c from read_parquet('" + hours + "') ch"
                 + " join read_parquet('" + cells + "') c using (col, row) where c.district is not null),"
                 + " e as (select district, time, avg(surface_c) m, quantile_cont(surface_c, 0.1) p10,"
@@ -197,7 +197,7 @@ class CityJobTest {
     void gdalReadsTheMapsWithTheInputGridAndTheSummarysStatistics() throws Exception {
         Gdal.require("gdalinfo");
         Class.forName("org.duckdb.DuckDBDriver");
-        String cells = out256.resolve("tables/cells") + "/*.parquet";
+        String cells = out256.resolve("tables/cells") + "/*/*.parquet";
         Map<String, String> column = Map.of("peak", "peak_c", "mean", "mean_c", "night_min", "night_min_c",
                 "peak_hour", "peak_hour", "degree_hours", "degree_hours");
         try (Connection c = DriverManager.getConnection("jdbc:duckdb:"); Statement st = c.createStatement()) {

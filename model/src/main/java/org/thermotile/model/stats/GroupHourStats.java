@@ -53,6 +53,24 @@ public final class GroupHourStats implements java.io.Serializable {
         }
     }
 
+    /** These statistics with groups merged: group g goes into {@code newGroupOf[g]} of {@code newGroups}. */
+    public GroupHourStats regroup(int[] newGroupOf, int newGroups) {
+        GroupHourStats r = new GroupHourStats(newGroups, hours);
+        for (int g = 0; g < groups; g++) {
+            int ng = newGroupOf[g];
+            for (int h = 0; h < hours; h++) {
+                int src = g * hours + h;
+                int dst = ng * hours + h;
+                r.sumC[dst] += sumC[src];
+                r.count[dst] += count[src];
+                for (int b = 0; b < BINS; b++) {
+                    r.hist[dst * BINS + b] += hist[src * BINS + b];
+                }
+            }
+        }
+        return r;
+    }
+
     public long count(int g, int h) {
         return count[g * hours + h];
     }

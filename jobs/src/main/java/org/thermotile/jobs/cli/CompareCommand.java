@@ -1,0 +1,32 @@
+package org.thermotile.jobs.cli;
+
+import java.nio.file.Path;
+import java.util.concurrent.Callable;
+import org.apache.spark.sql.SparkSession;
+import org.thermotile.jobs.city.Comparison;
+import org.thermotile.jobs.city.SparkSessions;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Parameters;
+
+/** {@code thermotile compare}: a finished run's scenarios against its baseline. */
+@Command(name = "compare", mixinStandardHelpOptions = true,
+        description = {"Compares a finished run's scenarios with its baseline: delta maps, a per-district "
+                + "table and a ranking (Parquet, CSV and Markdown under RUN_DIR/comparison/). "
+                + "'run' does this itself when the run file has scenarios; nothing is re-simulated."})
+final class CompareCommand implements Callable<Integer> {
+    @Parameters(index = "0", paramLabel = "RUN_DIR")
+    Path runDir;
+
+    @Override
+    public Integer call() throws Exception {
+        Path cmp = runDir.resolve("comparison");
+        if (java.nio.file.Files.exists(cmp)) {
+            org.thermotile.jobs.city.CityJob.deleteTreePublic(cmp);
+        }
+        try (SparkSession spark = SparkSessions.get(null, 0)) {
+            Comparison.write(spark, runDir);
+        }
+        System.out.println("comparison written to " + cmp + " (summary.md, ranking.csv, districts.csv)");
+        return 0;
+    }
+}
