@@ -28,7 +28,8 @@ public final class ScenarioPlanner {
     static final String TREES = "tree_canopy";
 
     /** What a scenario treats, for the comparison: cells per district (last entry: outside districts). */
-    public record Treated(String scenario, long[][] cellsPerChangeAndDistrict, double[] costPerM2) {
+    public record Treated(String scenario, long[][] cellsPerChangeAndDistrict, double[] costPerM2)
+            implements java.io.Serializable {
         /** Treated cells of all changes in district {@code d} (the last index is "no district"). */
         public long cells(int d) {
             long n = 0;
