@@ -65,7 +65,7 @@ final class RunCommand implements Callable<Integer> {
                         + "largest closure residual %.1e%n", s.cells(), (double) s.cellHours(), s.wallSeconds(),
                 s.cellHoursPerSecond(), s.maxClosureResidual());
         console.println("outputs: " + s.outDir());
-        console.println("  maps/      " + String.join(" ", s.maps().stream()
+        console.println("  maps/      " + String.join(" ", s.maps().stream().filter(m -> m.startsWith("maps/"))
                 .map(m -> m.substring("maps/".length())).toList()));
         console.println("  tables/    cells, material_hours" + (p.districtNames().isEmpty() ? "" : ", district_hours")
                 + (p.hourlyEpochSeconds().length > 0 ? ", cell_hours" : "") + " (Parquet)");

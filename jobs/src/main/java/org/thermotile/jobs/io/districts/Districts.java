@@ -30,7 +30,7 @@ import org.thermotile.jobs.io.raster.RasterGrid;
  * top-level {@code "crs": {"type": "name", "properties": {"name": "urn:ogc:def:crs:EPSG::32632"}}}
  * member (the GeoJSON 2008 form; RFC 7946 files are WGS 84 and are refused with advice to
  * reproject, e.g. {@code ogr2ogr -t_srs EPSG:32632}). Where districts overlap, a cell belongs to
- * the first listed.
+ * the first listed; a cell whose centre lies on a shared edge belongs to the first listed of the two.
  *
  * @param districts   the districts in file order
  * @param cellDistrict per cell (row-major), the district's index, or −1 for none
@@ -174,7 +174,7 @@ public record Districts(List<District> districts, int[] cellDistrict) {
                 double y = grid.cellCentreY(r);
                 for (int c = c0; c <= c1; c++) {
                     int i = (r - row0) * w + (c - col0);
-                    if (out[i] < 0 && pg.contains(gf.createPoint(new Coordinate(grid.cellCentreX(c), y)))) {
+                    if (out[i] < 0 && pg.covers(gf.createPoint(new Coordinate(grid.cellCentreX(c), y)))) {
                         out[i] = d;
                     }
                 }
