@@ -10,6 +10,7 @@ import java.util.ArrayList;
 import java.util.Arrays;
 import java.util.Comparator;
 import java.util.List;
+import java.util.Map;
 import java.util.stream.Stream;
 import org.apache.spark.api.java.JavaRDD;
 import org.apache.spark.api.java.JavaSparkContext;
@@ -44,7 +45,10 @@ public final class CityJob {
     }
 
     /** Options of a run. */
-    public record Options(Path outDir, String master, boolean replace, boolean quiet, int threads) {
+    public record Options(Path outDir, String master, boolean replace, boolean quiet, int threads, boolean resume) {
+        public Options(Path outDir, String master, boolean replace, boolean quiet, int threads) {
+            this(outDir, master, replace, quiet, threads, false);
+        }
     }
 
     /** Runs on a session of its own (embedded unless {@code opt.master()} is set), stopped at the end. */
@@ -56,9 +60,9 @@ public final class CityJob {
     public static Summary run(SparkSession session, PreparedRun prepared, Options opt, PrintStream console) {
         long t0 = System.nanoTime();
         Path out = opt.outDir().toAbsolutePath().normalize();
-        if (Files.exists(out) && !opt.replace()) {
+        if (Files.exists(out) && !opt.replace() && !opt.resume()) {
             throw new UserInputException(out + " already exists. Fix: choose another --out folder, "
-                    + "or add --replace to overwrite it");
+                    + "add --replace to overwrite it, or --resume to keep its complete scenario partitions");
         }
         Path parent = out.getParent();
         Path tmp = parent.resolve("." + out.getFileName() + ".partial");
@@ -96,12 +100,19 @@ public final class CityJob {
         ScenarioPlanner.Plan plan = p.plan();
         Broadcast<ScenarioPlanner.Plan> planB = jsc.broadcast(plan);
         List<TileSpec> tiles = p.tiles();
-        List<ScenarioVariant> variants = plan.variants();
+        Map<String, String> keys = Partitions.keys(p);
+        Path old = opt.outDir().toAbsolutePath().normalize();
+        List<String> reuse = opt.resume() && Files.isDirectory(old) ? Partitions.complete(old, keys) : List.of();
+        List<ScenarioVariant> variants = plan.variants().stream().filter(v -> !reuse.contains(v.name())).toList();
+        if (!reuse.isEmpty() && !opt.quiet()) {
+            console.println("resume: keeping " + reuse.size() + " complete partitions (" + String.join(", ", reuse)
+                    + "), computing " + variants.size());
+        }
         // One task per (variant, tile); the list order fixes task numbers and so part-file names.
         List<Work> work = new ArrayList<>();
-        for (int v = 0; v < variants.size(); v++) {
+        for (ScenarioVariant v : variants) {
             for (TileSpec t : tiles) {
-                work.add(new Work(v, t));
+                work.add(new Work(v.name(), t));
             }
         }
         ProgressListener progress = null;
@@ -114,11 +125,12 @@ public final class CityJob {
                     variants.size() > 1 ? " × " + variants.size() + " variants (baseline and "
                             + (variants.size() - 1) + " scenarios)" : "");
         }
-        JavaRDD<TileOutput> results = jsc.parallelize(work, work.size())
+        JavaRDD<TileOutput> results = jsc.parallelize(work, Math.max(1, work.size()))
                 .map(w -> {
                     ScenarioPlanner.Plan pl = planB.value();
                     TileJobSpec sp = spec.value();
-                    ScenarioVariant v = pl.variants().get(w.variant());
+                    ScenarioVariant v = pl.variants().stream().filter(x -> x.name().equals(w.variant()))
+                            .findFirst().orElseThrow();
                     return TileTask.run(w.tile(), sp, v, pl.units(), pl.roofs());
                 })
                 .persist(StorageLevel.MEMORY_AND_DISK());
@@ -148,21 +160,33 @@ public final class CityJob {
             TableOutputs.writeCellHours(spark, p, results, tmp.resolve("tables/cell_hours"));
         }
         results.unpersist(false);
+        for (String v : reuse) {
+            Partitions.copy(old, tmp, v);
+        }
+        // Every variant's maps, computed now or kept, in plan order.
+        maps.clear();
+        for (ScenarioVariant v : plan.variants()) {
+            for (String f : Partitions.files(tmp, v.name())) {
+                if (f.endsWith(".tif")) {
+                    maps.add(f.replace('\\', '/'));
+                }
+            }
+        }
 
         double maxClosure = collected.stream().mapToDouble(o -> o.result().maxClosureResidual).max().orElse(0);
         long cellHours = collected.stream().mapToLong(o -> o.result().cellHours).sum();
         double wall = (System.nanoTime() - t0) / 1e9;
         Summary s = new Summary(tmp, p.activeCells(), cellHours, wall, cellHours / Math.max(simSeconds, 1e-9),
                 maxClosure, maps);
-        Manifest.write(p, s, simSeconds, tmp.resolve("manifest.json"));
-        if (variants.size() > 1) {
+        Manifest.write(p, s, simSeconds, Partitions.record(tmp, keys), reuse, tmp.resolve("manifest.json"));
+        if (plan.variants().size() > 1) {
             Comparison.write(spark, p, tmp);
         }
         return s;
     }
 
     /** One task: a variant (index into the plan) and a tile. */
-    record Work(int variant, TileSpec tile) implements java.io.Serializable {
+    record Work(String variant, TileSpec tile) implements java.io.Serializable {
     }
 
     static void deleteQuietly(Path dir) {

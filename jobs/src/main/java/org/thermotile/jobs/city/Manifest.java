@@ -19,7 +19,8 @@ import java.util.Map;
 final class Manifest {
     private Manifest() {}
 
-    static void write(PreparedRun p, CityJob.Summary s, double simulateSeconds, Path file) throws IOException {
+    static void write(PreparedRun p, CityJob.Summary s, double simulateSeconds, ObjectNode partitions,
+            java.util.List<String> reused, Path file) throws IOException {
         ObjectMapper om = new ObjectMapper().enable(SerializationFeature.INDENT_OUTPUT);
         ObjectNode root = om.createObjectNode();
         root.put("format", "thermotile-run-manifest/1");
@@ -45,7 +46,7 @@ final class Manifest {
         sim.put("cells", s.cells());
         sim.put("hours", p.spec().forcing().hours() - 1);
         sim.put("counted_hours", p.sampleEpochSeconds().length);
-        sim.put("cell_hours", s.cellHours());
+        sim.put("cell_hours", p.cellHours() * p.plan().variants().size());
         sim.put("max_closure_residual", s.maxClosureResidual());
         sim.put("deep_ground_c", p.spec().settings().deepGroundK() - 273.15);
         ObjectNode mat = sim.putObject("materials");
@@ -86,12 +87,16 @@ final class Manifest {
                 cost.put(key, t.cost(d, p.grid().pixelAreaM2()));
             }
         }
+        root.set("partitions", partitions);
         var notes = root.putArray("notes");
         p.notes().forEach(notes::add);
         ObjectNode timing = root.putObject("timing");
         timing.put("wall_seconds", round(s.wallSeconds()));
         timing.put("simulate_seconds", round(simulateSeconds));
         timing.put("cell_hours_per_second", Math.round(s.cellHoursPerSecond()));
+        timing.put("computed_cell_hours", s.cellHours());
+        var kept = timing.putArray("resumed_partitions");
+        reused.forEach(kept::add);
         root.put("caution", "Surface temperature is not air temperature nor a heat-health index. "
                 + "Results are estimates for comparing options; defer to local building codes and "
                 + "licensed professionals.");

@@ -206,24 +206,34 @@ final class TableOutputs {
 
     private static final Pattern PART = Pattern.compile("part-(\\d+)-.*?(\\.[a-z0-9]+)?\\.parquet");
 
-    /** part-00003-&lt;uuid&gt;-c000.snappy.parquet → part-00003.snappy.parquet; checksum files removed. */
+    /**
+     * part-00003-&lt;uuid&gt;-c000.snappy.parquet → part-00000.snappy.parquet, numbered in task
+     * order within each folder (so a partition's names do not depend on which other partitions
+     * the same job wrote); checksum files removed.
+     */
     static void renameParts(Path dir) {
         try (Stream<Path> s = Files.list(dir)) {
+            List<Path> parts = new ArrayList<>();
             for (Path f : s.sorted().toList()) {
                 String n = f.getFileName().toString();
                 if (Files.isDirectory(f)) {
                     renameParts(f);
-                    continue;
-                }
-                if (n.endsWith(".crc")) {
+                } else if (n.endsWith(".crc")) {
                     Files.delete(f);
-                    continue;
+                } else if (PART.matcher(n).matches()) {
+                    parts.add(f);
                 }
-                Matcher m = PART.matcher(n);
-                if (m.matches()) {
-                    String ext = m.group(2) == null ? "" : m.group(2);
-                    Files.move(f, dir.resolve("part-" + m.group(1) + ext + ".parquet"));
-                }
+            }
+            parts.sort(java.util.Comparator.comparingInt(f -> {
+                Matcher m = PART.matcher(f.getFileName().toString());
+                m.matches();
+                return Integer.parseInt(m.group(1));
+            }));
+            for (int i = 0; i < parts.size(); i++) {
+                Matcher m = PART.matcher(parts.get(i).getFileName().toString());
+                m.matches();
+                String ext = m.group(2) == null ? "" : m.group(2);
+                Files.move(parts.get(i), dir.resolve(String.format("part-%05d%s.parquet", i, ext)));
             }
         } catch (IOException e) {
             throw new java.io.UncheckedIOException(e);

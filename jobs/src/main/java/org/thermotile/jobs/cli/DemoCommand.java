@@ -28,7 +28,7 @@ final class DemoCommand implements Callable<Integer> {
         }
         RunFile run = RunFileReader.read(runFile);
         Path dir = out != null ? out : Path.of("runs", "riverside-demo");
-        RunCommand.execute(run, dir, null, 0, out == null, quiet, false, System.out);
+        RunCommand.execute(run, dir, null, 0, out == null, quiet, false, false, System.out);
         return 0;
     }
 

@@ -43,16 +43,20 @@ final class RunCommand implements Callable<Integer> {
     @Option(names = "--confirm-sweep", description = "run a sweep larger than its max_scenarios")
     boolean confirmSweep;
 
+    @Option(names = "--resume", description = "keep the complete scenario partitions of an existing output "
+            + "folder (checked against its manifest's hashes) and compute only what is missing")
+    boolean resume;
+
     @Override
     public Integer call() {
         RunFile run = RunFileReader.read(runFile);
         Path dir = out != null ? out : Path.of("runs", run.name());
-        execute(run, dir, master, threads, replace, quiet, confirmSweep, System.out);
+        execute(run, dir, master, threads, replace, quiet, confirmSweep, resume, System.out);
         return 0;
     }
 
     static CityJob.Summary execute(RunFile run, Path dir, String master, int threads, boolean replace,
-            boolean quiet, boolean confirmSweep, PrintStream console) {
+            boolean quiet, boolean confirmSweep, boolean resume, PrintStream console) {
         PreparedRun p = RunPreparer.prepare(run, confirmSweep);
         if (!quiet) {
             console.printf(Locale.ROOT, "%s: %d × %d cells of %.1f m (EPSG:%d), %d materials, %d counted hours%n",
@@ -60,7 +64,7 @@ final class RunCommand implements Callable<Integer> {
                     p.paletteLabels().size(), p.sampleEpochSeconds().length);
             p.notes().forEach(n -> console.println("note: " + n));
         }
-        CityJob.Summary s = CityJob.run(p, new CityJob.Options(dir, master, replace, quiet, threads), console);
+        CityJob.Summary s = CityJob.run(p, new CityJob.Options(dir, master, replace, quiet, threads, resume), console);
         console.printf(Locale.ROOT, "done: %d cells, %.3g cell-hours in %.1f s (%.3g cell-hours/s), "
                         + "largest closure residual %.1e%n", s.cells(), (double) s.cellHours(), s.wallSeconds(),
                 s.cellHoursPerSecond(), s.maxClosureResidual());

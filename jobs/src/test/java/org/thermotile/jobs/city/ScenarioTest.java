@@ -201,6 +201,49 @@ class ScenarioTest {
         assertTrue(Files.readString(out.resolve("comparison/summary.md")).contains("| 1 | "));
     }
 
+    /**
+     * A resumed run gives the same bytes as a run from scratch and recomputes only the deleted
+     * partition (the manifest says which it kept; the timing block aside, manifests are equal).
+     */
+    @Test
+    void resumeRecomputesOnlyTheMissingPartitionAndGivesTheSameBytes() throws Exception {
+        Path copy = dir.resolve("resumed");
+        copyTree(out, copy);
+        CityJob.deleteTreePublic(copy.resolve("scenarios/partial"));
+        CityJob.deleteTreePublic(copy.resolve("tables/cells/scenario=partial"));
+        Path rf = dir.resolve("in-s256/run.yaml");
+        CityJob.run(spark, RunPreparer.prepare(RunFileReader.read(rf)),
+                new CityJob.Options(copy, null, false, true, 0, true), new PrintStream(new ByteArrayOutputStream()));
+        List<String> files = DeterminismTest.tree(out);
+        assertEquals(files, DeterminismTest.tree(copy));
+        for (String f : files) {
+            if (f.equals("manifest.json")) {
+                assertEquals(DeterminismTest.withoutTiming(out.resolve(f)), DeterminismTest.withoutTiming(copy.resolve(f)));
+            } else {
+                assertTrue(Arrays.equals(Files.readAllBytes(out.resolve(f)), Files.readAllBytes(copy.resolve(f))), f);
+            }
+        }
+        var timing = new com.fasterxml.jackson.databind.ObjectMapper().readTree(copy.resolve("manifest.json").toFile())
+                .path("timing");
+        assertEquals(List.of("baseline", "zero-adoption", "same-values", "cool-dark-roofs", "west-only"),
+                java.util.stream.StreamSupport.stream(timing.path("resumed_partitions").spliterator(), false)
+                        .map(com.fasterxml.jackson.databind.JsonNode::asText).toList());
+        assertEquals(RunPreparer.prepare(RunFileReader.read(rf)).cellHours(), timing.path("computed_cell_hours").asLong());
+    }
+
+    static void copyTree(Path from, Path to) throws Exception {
+        try (var s = Files.walk(from)) {
+            for (Path f : s.toList()) {
+                Path t = to.resolve(from.relativize(f).toString());
+                if (Files.isDirectory(f)) {
+                    Files.createDirectories(t);
+                } else {
+                    Files.copy(f, t);
+                }
+            }
+        }
+    }
+
     // ---- bad inputs
 
     static Exception prepareFails(String scenarioYaml) throws Exception {
