@@ -1,0 +1,91 @@
+package org.thermotile.jobs.hotspots;
+
+import java.util.Locale;
+import org.thermotile.jobs.cli.UserInputException;
+import org.thermotile.model.hotspot.DistanceBand.Weights;
+import org.thermotile.model.hotspot.HotspotClass;
+
+/**
+ * What a hotspot analysis computes.
+ *
+ * @param statistic  the per-cell statistic: a map name of the run (peak, mean, night_min,
+ *                   degree_hours, hours_above) or, with a scenario, also delta_NAME
+ * @param scenario   a scenario name under RUN/scenarios/, or null (or "baseline") for the run itself
+ * @param distanceM  band distance D [m]
+ * @param weights    binary or inverse-distance weights
+ * @param fdr        Benjamini–Hochberg FDR level Q, 0 &lt; Q ≤ 0.10
+ * @param tileSize   cells per tile edge for the parallel Gi* pass (the result does not depend on it)
+ * @param replace    overwrite an existing output folder
+ * @param districts  how to read district polygons (null: {@link DistrictCells#NOT_AVAILABLE})
+ */
+public record HotspotOptions(String statistic, String scenario, double distanceM, Weights weights, double fdr,
+        int tileSize, boolean replace, DistrictCells.Loader districts) {
+
+    /** Defaults: peak, baseline, 100 m, binary weights, FDR 0.10, tiles of 256. */
+    public static final String DEFAULT_STATISTIC = "peak";
+    public static final double DEFAULT_DISTANCE_M = 100;
+    public static final double DEFAULT_FDR = 0.10;
+    public static final int DEFAULT_TILE_SIZE = 256;
+
+    /** Smallest and largest tile edge accepted [cells] (our choice). */
+    public static final int MIN_TILE = 16, MAX_TILE = 4096;
+
+    public HotspotOptions {
+        if (statistic == null || statistic.isBlank()) {
+            statistic = DEFAULT_STATISTIC;
+        }
+        if (weights == null) {
+            weights = Weights.BINARY;
+        }
+        if (districts == null) {
+            districts = DistrictCells.NOT_AVAILABLE;
+        }
+        if (!(fdr > 0) || fdr > HotspotClass.MAX_FDR) {
+            throw new UserInputException(String.format(Locale.ROOT, "--fdr %s is outside (0, %.2f]: the classes stop "
+                    + "at 90 %% confidence (FDR 0.10). Fix: give e.g. --fdr 0.05", fdr, HotspotClass.MAX_FDR));
+        }
+        if (!(distanceM > 0) || !Double.isFinite(distanceM)) {
+            throw new UserInputException("--distance " + distanceM + " is not a positive number of metres. "
+                    + "Fix: give the band distance in metres, e.g. --distance 100");
+        }
+        if (tileSize < MIN_TILE || tileSize > MAX_TILE) {
+            throw new UserInputException("--tile-size " + tileSize + " is outside " + MIN_TILE + "…" + MAX_TILE
+                    + " cells. Fix: give e.g. --tile-size 256");
+        }
+    }
+
+    /** The defaults for {@code statistic}. */
+    public static HotspotOptions of(String statistic) {
+        return new HotspotOptions(statistic, null, DEFAULT_DISTANCE_M, Weights.BINARY, DEFAULT_FDR,
+                DEFAULT_TILE_SIZE, false, null);
+    }
+
+    public HotspotOptions withScenario(String s) {
+        return new HotspotOptions(statistic, s, distanceM, weights, fdr, tileSize, replace, districts);
+    }
+
+    public HotspotOptions withDistance(double d, Weights w) {
+        return new HotspotOptions(statistic, scenario, d, w, fdr, tileSize, replace, districts);
+    }
+
+    public HotspotOptions withFdr(double q) {
+        return new HotspotOptions(statistic, scenario, distanceM, weights, q, tileSize, replace, districts);
+    }
+
+    public HotspotOptions withTileSize(int t) {
+        return new HotspotOptions(statistic, scenario, distanceM, weights, fdr, t, replace, districts);
+    }
+
+    public HotspotOptions withReplace(boolean r) {
+        return new HotspotOptions(statistic, scenario, distanceM, weights, fdr, tileSize, r, districts);
+    }
+
+    public HotspotOptions withDistricts(DistrictCells.Loader l) {
+        return new HotspotOptions(statistic, scenario, distanceM, weights, fdr, tileSize, replace, l);
+    }
+
+    /** True when the analysis is of the run itself. */
+    public boolean isBaseline() {
+        return scenario == null || scenario.isBlank() || scenario.equals(RunFolder.BASELINE);
+    }
+}
