@@ -35,6 +35,11 @@ public final class HotspotsCommand implements Callable<Integer> {
             description = "a scenario under RUN_DIR/scenarios/ (default: the run itself, 'baseline')")
     String scenario;
 
+    @Option(names = "--reference", paramLabel = "WHOSE", defaultValue = "baseline",
+            description = "with --scenario: compare with the run's city-wide mean and spread (baseline: hot-spot "
+                    + "areas comparable with the run's) or the scenario's own (scenario) (default: ${DEFAULT-VALUE})")
+    String reference;
+
     @Option(names = "--distance", paramLabel = "METRES", defaultValue = "100",
             description = "distance band D in metres: neighbours whose centres lie within D (default: ${DEFAULT-VALUE})")
     double distanceM;
@@ -68,7 +73,11 @@ public final class HotspotsCommand implements Callable<Integer> {
         if (w == null) {
             throw new UserInputException("--weights '" + weights + "' is unknown. Fix: give binary or inverse_distance");
         }
-        return new HotspotOptions(statistic, scenario, distanceM, w, fdr, tileSize, replace, null);
+        HotspotOptions.Reference ref = HotspotOptions.Reference.ofKey(reference);
+        if (ref == null) {
+            throw new UserInputException("--reference '" + reference + "' is unknown. Fix: give baseline or scenario");
+        }
+        return new HotspotOptions(statistic, scenario, distanceM, w, fdr, tileSize, replace, null, ref);
     }
 
     @Override
@@ -92,8 +101,9 @@ public final class HotspotsCommand implements Callable<Integer> {
     }
 
     static void print(Hotspots.Result r, PrintStream out) {
-        out.printf(Locale.ROOT, "%s%s: %d cells, mean %.3f %s, sd %.3f %s; %s%n", r.statistic(),
-                r.scenario() == null ? "" : " (scenario " + r.scenario() + ")", r.validCells(), r.mean(), r.unit(),
+        out.printf(Locale.ROOT, "%s%s: %s%d cells, mean %.3f %s, sd %.3f %s; %s%n", r.statistic(),
+                r.scenario() == null ? "" : " (scenario " + r.scenario() + ")",
+                r.reference().equals("baseline") ? "compared with the run's " : "", r.validCells(), r.mean(), r.unit(),
                 r.sd(), r.unit(), r.band());
         StringBuilder cls = new StringBuilder();
         for (HotspotClass.Code c : HotspotClass.TABLE) {

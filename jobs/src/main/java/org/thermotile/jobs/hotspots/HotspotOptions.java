@@ -17,9 +17,41 @@ import org.thermotile.model.hotspot.HotspotClass;
  * @param tileSize   cells per tile edge for the parallel Gi* pass (the result does not depend on it)
  * @param replace    overwrite an existing output folder
  * @param districts  how to read district polygons (null: {@link DistrictCells#NOT_AVAILABLE})
+ * @param reference  for a scenario's own map: whose global mean and S Gi* uses (null: baseline)
  */
 public record HotspotOptions(String statistic, String scenario, double distanceM, Weights weights, double fdr,
-        int tileSize, boolean replace, DistrictCells.Loader districts) {
+        int tileSize, boolean replace, DistrictCells.Loader districts, Reference reference) {
+
+    /**
+     * Whose global mean x̄ and standard deviation S a scenario's Gi* uses. {@code BASELINE}: the
+     * run's map of the same statistic, so "hot" means hotter than the city as it is and hot-spot
+     * areas of the run and its scenarios can be compared (the z-score then tests the scenario's
+     * local mean against the run's city-wide mean and spread). {@code SCENARIO}: the scenario's
+     * own map, the textbook Gi* of that map alone (Ord & Getis 1995). Differences (delta_…) and the
+     * run itself always use their own field.
+     */
+    public enum Reference {
+        BASELINE("baseline"), SCENARIO("scenario");
+
+        private final String key;
+
+        Reference(String key) {
+            this.key = key;
+        }
+
+        public String key() {
+            return key;
+        }
+
+        public static Reference ofKey(String key) {
+            for (Reference r : values()) {
+                if (r.key.equals(key)) {
+                    return r;
+                }
+            }
+            return null;
+        }
+    }
 
     /** Defaults: peak, baseline, 100 m, binary weights, FDR 0.10, tiles of 256. */
     public static final String DEFAULT_STATISTIC = "peak";
@@ -40,6 +72,9 @@ public record HotspotOptions(String statistic, String scenario, double distanceM
         if (districts == null) {
             districts = DistrictCells.NOT_AVAILABLE;
         }
+        if (reference == null) {
+            reference = Reference.BASELINE;
+        }
         if (!(fdr > 0) || fdr > HotspotClass.MAX_FDR) {
             throw new UserInputException(String.format(Locale.ROOT, "--fdr %s is outside (0, %.2f]: the classes stop "
                     + "at 90 %% confidence (FDR 0.10). Fix: give e.g. --fdr 0.05", fdr, HotspotClass.MAX_FDR));
@@ -57,31 +92,35 @@ public record HotspotOptions(String statistic, String scenario, double distanceM
     /** The defaults for {@code statistic}. */
     public static HotspotOptions of(String statistic) {
         return new HotspotOptions(statistic, null, DEFAULT_DISTANCE_M, Weights.BINARY, DEFAULT_FDR,
-                DEFAULT_TILE_SIZE, false, null);
+                DEFAULT_TILE_SIZE, false, null, null);
     }
 
     public HotspotOptions withScenario(String s) {
-        return new HotspotOptions(statistic, s, distanceM, weights, fdr, tileSize, replace, districts);
+        return new HotspotOptions(statistic, s, distanceM, weights, fdr, tileSize, replace, districts, reference);
     }
 
     public HotspotOptions withDistance(double d, Weights w) {
-        return new HotspotOptions(statistic, scenario, d, w, fdr, tileSize, replace, districts);
+        return new HotspotOptions(statistic, scenario, d, w, fdr, tileSize, replace, districts, reference);
     }
 
     public HotspotOptions withFdr(double q) {
-        return new HotspotOptions(statistic, scenario, distanceM, weights, q, tileSize, replace, districts);
+        return new HotspotOptions(statistic, scenario, distanceM, weights, q, tileSize, replace, districts, reference);
     }
 
     public HotspotOptions withTileSize(int t) {
-        return new HotspotOptions(statistic, scenario, distanceM, weights, fdr, t, replace, districts);
+        return new HotspotOptions(statistic, scenario, distanceM, weights, fdr, t, replace, districts, reference);
     }
 
     public HotspotOptions withReplace(boolean r) {
-        return new HotspotOptions(statistic, scenario, distanceM, weights, fdr, tileSize, r, districts);
+        return new HotspotOptions(statistic, scenario, distanceM, weights, fdr, tileSize, r, districts, reference);
     }
 
     public HotspotOptions withDistricts(DistrictCells.Loader l) {
-        return new HotspotOptions(statistic, scenario, distanceM, weights, fdr, tileSize, replace, l);
+        return new HotspotOptions(statistic, scenario, distanceM, weights, fdr, tileSize, replace, l, reference);
+    }
+
+    public HotspotOptions withReference(Reference r) {
+        return new HotspotOptions(statistic, scenario, distanceM, weights, fdr, tileSize, replace, districts, r);
     }
 
     /** True when the analysis is of the run itself. */

@@ -80,12 +80,15 @@ public final class Hotspots {
     /**
      * What an analysis found.
      *
+     * @param reference     whose mean and S were used: "own" or "baseline" (the run's map)
+     * @param validCells    valid cells of the reference field; mean and sd are its
      * @param classCells    cells per class code (−3…3)
      * @param hotMeanValue  mean of the statistic over the hot cells, NaN when there are none
      * @param hotAreaRemovedM2 for a scenario whose baseline hotspots exist: baseline hot area minus
      *                      this one's [m²], else null
      */
-    public record Result(Path outDir, String statistic, String scenario, String unit, long validCells, double mean,
+    public record Result(Path outDir, String statistic, String scenario, String reference, String unit,
+            long validCells, double mean,
             double sd, String band, HotspotClass.Thresholds thresholds, Map<Integer, Long> classCells,
             int hotPolygons, int coldPolygons, double hotAreaM2, double coldAreaM2, double hotMeanValue,
             Double hotAreaRemovedM2, List<String> outputs, List<String> notes) {
@@ -148,7 +151,7 @@ public final class Hotspots {
                 deleteTree(out);
             }
             Files.move(tmp, out, StandardCopyOption.ATOMIC_MOVE);
-            return new Result(out, r.statistic(), r.scenario(), r.unit(), r.validCells(), r.mean(), r.sd(), r.band(),
+            return new Result(out, r.statistic(), r.scenario(), r.reference(), r.unit(), r.validCells(), r.mean(), r.sd(), r.band(),
                     r.thresholds(), r.classCells(), r.hotPolygons(), r.coldPolygons(), r.hotAreaM2(), r.coldAreaM2(),
                     r.hotMeanValue(), r.hotAreaRemovedM2(), r.outputs(), r.notes());
         } catch (IOException e) {
@@ -170,16 +173,17 @@ public final class Hotspots {
         FieldSource src = field.source();
 
         // Pass 1: global n, mean, S over fixed blocks, merged in block order.
+        FieldSource ref = field.reference();
         List<int[]> blocks = windows(grid, STATS_BLOCK);
         List<GlobalMoments> parts = jsc.parallelize(blocks, Math.max(1, blocks.size())).map(w -> {
             GlobalMoments m = new GlobalMoments();
-            m.addAll(src.read(w[0], w[1], w[2], w[3]));
+            m.addAll(ref.read(w[0], w[1], w[2], w[3]));
             return m;
         }).collect();
         GlobalMoments global = new GlobalMoments();
         parts.forEach(global::merge);
         if (global.count() < 2) {
-            throw new UserInputException(src.map() + ": " + global.count() + " cell(s) with data; Gi* needs at "
+            throw new UserInputException(ref.map() + ": " + global.count() + " cell(s) with data; Gi* needs at "
                     + "least 2. Fix: check the run's land cover (every cell is no data?)");
         }
         if (global.sd() == 0) {
@@ -312,18 +316,30 @@ public final class Hotspots {
                 hotPolysByDistrict, coldPolysByDistrict), HotspotTables.DISTRICTS, tmp.resolve(DISTRICTS));
 
         Double removed = null;
-        if (field.scenario() != null) {
+        if (field.scenario() != null && field.referenceLabel().equals("baseline")) {
             Path base = p.folder().dir().resolve("hotspots").resolve(field.statistic()).resolve(SUMMARY);
             if (Files.isRegularFile(base)) {
                 JsonNode b = new ObjectMapper().readTree(base.toFile());
-                removed = b.path("hot_area_m2").asDouble() - hotArea;
+                boolean same = b.path("distance_m").asDouble() == band.distanceM()
+                        && b.path("weights").asText().equals(band.weights().key())
+                        && b.path("fdr").asDouble() == opt.fdr();
+                if (same) {
+                    removed = b.path("hot_area_m2").asDouble() - hotArea;
+                } else {
+                    notes.add("the run's own hotspots (" + base.getParent() + ") used other settings (distance "
+                            + b.path("distance_m").asText() + " m, " + b.path("weights").asText() + ", FDR "
+                            + b.path("fdr").asText() + "): run them again with these to see the hot area removed");
+                }
             } else {
-                notes.add("no baseline hotspots of " + field.statistic() + " (" + base.getParent()
-                        + "): run 'thermotile hotspots' on the run itself first to see the hot area removed");
+                notes.add("no hotspots of the run itself for " + field.statistic() + " (" + base.getParent()
+                        + "): run 'thermotile hotspots' on the run with the same settings to see the hot area removed");
             }
+        } else if (field.scenario() != null && !field.statistic().startsWith(RunFolder.DELTA)) {
+            notes.add("Gi* of the scenario against its own mean: hot spots are relative to the scenario's city, "
+                    + "so their area is not comparable with the run's (use --reference baseline for that)");
         }
         List<String> outputs = List.of(ZSCORE, CLASSES, GEOJSON, GEOJSON_WGS84, POLYGONS + "/", DISTRICTS + "/", SUMMARY);
-        Result r = new Result(tmp, field.statistic(), field.scenario(), field.unit(), global.count(), global.mean(),
+        Result r = new Result(tmp, field.statistic(), field.scenario(), field.referenceLabel(), field.unit(), global.count(), global.mean(),
                 global.sd(), band.toString(), th, classCells, hotPolys, coldPolys, hotArea, coldArea,
                 hot == 0 ? Double.NaN : hotSum / hot, removed, outputs, List.copyOf(notes));
         writeSummary(tmp.resolve(SUMMARY), r, p, global);
@@ -425,6 +441,7 @@ public final class Hotspots {
         common.put("UNIT", ascii(field.unit()));
         common.put("SOURCE", ascii(field.description()));
         common.put("SCENARIO", field.scenario() == null ? RunFolder.BASELINE : ascii(field.scenario()));
+        common.put("REFERENCE", field.referenceLabel());
         common.put("DISTANCE_M", num(band.distanceM()));
         common.put("WEIGHTS", band.weights().key());
         common.put("BAND_CELLS", Integer.toString(band.size()));
@@ -465,6 +482,7 @@ public final class Hotspots {
         root.put("unit", r.unit());
         root.put("scenario", r.scenario() == null ? RunFolder.BASELINE : r.scenario());
         root.put("source", p.field().description());
+        root.put("reference", p.field().referenceLabel());
         root.put("distance_m", p.band().distanceM());
         root.put("weights", p.band().weights().key());
         root.put("band_cells", p.band().size());

@@ -47,9 +47,14 @@ public final class RunFolder {
         this.manifest = manifest;
     }
 
-    /** One statistic of one scenario, ready to read. */
+    /**
+     * One statistic of one scenario, ready to read.
+     *
+     * @param reference       where the global mean and S come from (the source itself, or the run's map)
+     * @param referenceLabel  "own" or "baseline"
+     */
     public record Field(String statistic, String scenario, String unit, FieldSource source, RasterGrid grid,
-            Path outDir, String description) {
+            Path outDir, String description, FieldSource reference, String referenceLabel) {
     }
 
     /**
@@ -202,8 +207,24 @@ public final class RunFolder {
             description = scenario == null ? "maps/" + stat + ".tif" : "maps/" + stat + ".tif of scenario " + scenario;
         }
         RasterGrid grid = checkedGrid(src);
+        FieldSource ref = src;
+        String refLabel = "own";
+        if (scenario != null && !stat.startsWith(DELTA) && opt.reference() == HotspotOptions.Reference.BASELINE) {
+            Path base = mapsDir(null).resolve(stat + ".tif");
+            if (!Files.isRegularFile(base)) {
+                throw new UserInputException(base + " is missing: the run's own map gives the city-wide mean and "
+                        + "spread a scenario is compared with. Fix: add --reference scenario to use the scenario's own");
+            }
+            ref = new FieldSource(base.toString(), null);
+            refLabel = "baseline";
+            RasterGrid bg = checkedGrid(ref);
+            grid.differenceFrom(bg).ifPresent(d -> {
+                throw new UserInputException(src.map() + ": its grid differs from " + base + ": " + d
+                        + ". Fix: write the scenario on the run's grid");
+            });
+        }
         Path out = (scenario == null ? dir : dir.resolve("scenarios").resolve(scenario)).resolve("hotspots").resolve(stat);
-        return new Field(stat, scenario, unit, src, grid, out, description);
+        return new Field(stat, scenario, unit, src, grid, out, description, ref, refLabel);
     }
 
     private Path mapsDir(String scenario) {

@@ -40,7 +40,7 @@ class HotspotsJobTest {
     @TempDir
     static Path dir;
     static Path run64, run256;
-    static Hotspots.Result peak64, peak256, uniform, noise, scenario;
+    static Hotspots.Result peak64, peak256, uniform, noise, scenario, scenarioPeak, scenarioOwn;
     static final double CELL_AREA = HotspotFixture.CELL * HotspotFixture.CELL;
 
     @BeforeAll
@@ -60,6 +60,10 @@ class HotspotsJobTest {
         noise = Hotspots.run(spark, run256, HotspotOptions.of("night_min").withDistance(15, Weights.BINARY));
         scenario = Hotspots.run(spark, run256, HotspotOptions.of("delta_peak").withScenario("cool_roofs")
                 .withDistance(15, Weights.INVERSE_DISTANCE));
+        HotspotOptions cool = HotspotOptions.of("peak").withScenario("cool_roofs").withDistance(15, Weights.BINARY);
+        scenarioPeak = Hotspots.run(spark, run256, cool);
+        scenarioOwn = Hotspots.run(spark, run256, cool.withReference(HotspotOptions.Reference.SCENARIO)
+                .withReplace(true));
     }
 
     /** The manifest's districts path made absolute (the run command writes absolute paths). */
@@ -83,6 +87,7 @@ class HotspotsJobTest {
         }
         assertFalse(Files.exists(run256.resolve("hotspots/.peak.partial")));
         assertTrue(Files.exists(run256.resolve("scenarios/cool_roofs/hotspots/delta_peak/class.tif")));
+        assertTrue(Files.exists(run256.resolve("scenarios/cool_roofs/hotspots/peak/class.tif")));
     }
 
     /** Tile size 64 (3 × 2 tiles with halos) and 256 (one tile) give byte-identical outputs. */
@@ -194,6 +199,25 @@ class HotspotsJobTest {
         assertTrue(scenario.coldPolygons() >= 1);
         assertEquals(0, scenario.hotPolygons(), "the delta is 0 or −4: nothing hot");
         assertTrue(scenario.classCells().get(-3) >= HotspotFixture.SQ * HotspotFixture.SQ);
+    }
+
+    /**
+     * The scenario (the noise without the square and ring) against the run's mean and S: the
+     * planted hot spots are gone, and the area removed is the run's hot area minus the scenario's.
+     */
+    @Test
+    void scenarioAgainstTheRunReportsTheHotAreaRemoved() {
+        assertEquals("baseline", scenarioPeak.reference());
+        assertEquals(peak256.mean(), scenarioPeak.mean(), "the run's mean is the reference");
+        assertEquals(0L, scenarioPeak.classCells().get(3), "no 99 % hot cell is left: " + scenarioPeak.classCells());
+        assertNotNull(scenarioPeak.hotAreaRemovedM2());
+        assertEquals(peak256.hotAreaM2() - scenarioPeak.hotAreaM2(), scenarioPeak.hotAreaRemovedM2(), 1e-9);
+        assertTrue(scenarioPeak.hotAreaRemovedM2() > 2 * HotspotFixture.SQ * HotspotFixture.SQ * CELL_AREA,
+                "square and ring removed: " + scenarioPeak.hotAreaRemovedM2());
+        // Against its own mean the scenario is plain noise: its area is not compared.
+        assertEquals("own", scenarioOwn.reference());
+        assertNull(scenarioOwn.hotAreaRemovedM2());
+        assertTrue(scenarioOwn.notes().stream().anyMatch(n -> n.contains("not comparable")), scenarioOwn.notes().toString());
     }
 
     @Test
@@ -349,7 +373,8 @@ class HotspotsJobTest {
         assertEquals("peak", s.path("statistic").asText());
         assertEquals(peak256.hotAreaM2(), s.path("hot_area_m2").asDouble(), 1e-9);
         assertEquals(HotspotFixture.W * HotspotFixture.H - 54, s.path("global").path("valid_cells").asLong());
-        assertNull(scenario.hotAreaRemovedM2() == null ? null : "present", "no baseline delta_peak hotspots");
+        assertEquals("own", s.path("reference").asText());
+        assertNull(scenario.hotAreaRemovedM2(), "a difference map has nothing to compare with");
         assertNotNull(s.path("p_thresholds").path("class_3"));
     }
 }
