@@ -18,7 +18,7 @@ import picocli.CommandLine.Parameters;
 @Command(name = "hotspots", mixinStandardHelpOptions = true, sortOptions = false,
         description = {"Finds statistically significant hot and cold spots in a finished run: Getis-Ord Gi* "
                 + "z-scores on a fixed distance band, two-sided normal p-values, Benjamini-Hochberg false "
-                + "discovery rate, classes at 90, 95 and 99 % confidence, merged into polygons.",
+                + "discovery rate, classes at 90, 95 and 99 %% confidence, merged into polygons.",
                 "Writes RUN_DIR/hotspots/STATISTIC/ (or RUN_DIR/scenarios/NAME/hotspots/STATISTIC/): zscore.tif, "
                         + "class.tif, hotspots.geojson (the maps' CRS), hotspots_wgs84.geojson, polygons/ and "
                         + "districts/ (Parquet), summary.json. Reads the run's maps; never re-simulates."})

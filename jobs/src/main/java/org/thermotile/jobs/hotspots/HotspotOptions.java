@@ -39,10 +39,12 @@ public record HotspotOptions(String statistic, String scenario, double distanceM
             this.key = key;
         }
 
+        /** The name users write ("baseline", "scenario"). */
         public String key() {
             return key;
         }
 
+        /** The reference for a user's name, or null. */
         public static Reference ofKey(String key) {
             for (Reference r : values()) {
                 if (r.key.equals(key)) {
@@ -95,30 +97,37 @@ public record HotspotOptions(String statistic, String scenario, double distanceM
                 DEFAULT_TILE_SIZE, false, null, null);
     }
 
+    /** These options for scenario {@code s} (null or "baseline": the run itself). */
     public HotspotOptions withScenario(String s) {
         return new HotspotOptions(statistic, s, distanceM, weights, fdr, tileSize, replace, districts, reference);
     }
 
+    /** These options with band distance {@code d} [m] and weights {@code w}. */
     public HotspotOptions withDistance(double d, Weights w) {
         return new HotspotOptions(statistic, scenario, d, w, fdr, tileSize, replace, districts, reference);
     }
 
+    /** These options with FDR level {@code q}, 0 &lt; q ≤ 0.10. */
     public HotspotOptions withFdr(double q) {
         return new HotspotOptions(statistic, scenario, distanceM, weights, q, tileSize, replace, districts, reference);
     }
 
+    /** These options with tiles of {@code t} × {@code t} cells. */
     public HotspotOptions withTileSize(int t) {
         return new HotspotOptions(statistic, scenario, distanceM, weights, fdr, t, replace, districts, reference);
     }
 
+    /** These options, overwriting an existing output folder when {@code r}. */
     public HotspotOptions withReplace(boolean r) {
         return new HotspotOptions(statistic, scenario, distanceM, weights, fdr, tileSize, r, districts, reference);
     }
 
+    /** These options reading districts with {@code l}. */
     public HotspotOptions withDistricts(DistrictCells.Loader l) {
         return new HotspotOptions(statistic, scenario, distanceM, weights, fdr, tileSize, replace, l, reference);
     }
 
+    /** These options with reference {@code r} for a scenario's own map. */
     public HotspotOptions withReference(Reference r) {
         return new HotspotOptions(statistic, scenario, distanceM, weights, fdr, tileSize, replace, districts, r);
     }
