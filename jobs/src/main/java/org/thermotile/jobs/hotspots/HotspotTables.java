@@ -1,0 +1,89 @@
+package org.thermotile.jobs.hotspots;
+
+import java.io.IOException;
+import java.io.UncheckedIOException;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.List;
+import java.util.regex.Matcher;
+import java.util.regex.Pattern;
+import java.util.stream.Stream;
+import org.apache.spark.sql.Row;
+import org.apache.spark.sql.SaveMode;
+import org.apache.spark.sql.SparkSession;
+import org.apache.spark.sql.types.DataTypes;
+import org.apache.spark.sql.types.StructType;
+
+/**
+ * The hotspot Parquet tables, each written as one part file through Spark's commit protocol and
+ * renamed to a stable name (part-00000.snappy.parquet), so identical inputs give identical trees.
+ */
+final class HotspotTables {
+    private HotspotTables() {}
+
+    /** One row per polygon: the GeoJSON properties plus the centroid. */
+    static final StructType POLYGONS = new StructType()
+            .add("id", DataTypes.IntegerType, false)
+            .add("class", DataTypes.IntegerType, false)
+            .add("label", DataTypes.StringType, false)
+            .add("cells", DataTypes.IntegerType, false)
+            .add("area_m2", DataTypes.DoubleType, false)
+            .add("statistic", DataTypes.StringType, false)
+            .add("unit", DataTypes.StringType, false)
+            .add("mean_value", DataTypes.DoubleType, false)
+            .add("min_value", DataTypes.DoubleType, false)
+            .add("max_value", DataTypes.DoubleType, false)
+            .add("mean_z", DataTypes.DoubleType, false)
+            .add("district_id", DataTypes.StringType, true)
+            .add("district_name", DataTypes.StringType, true)
+            .add("centroid_x", DataTypes.DoubleType, false)
+            .add("centroid_y", DataTypes.DoubleType, false)
+            .add("centroid_lon", DataTypes.DoubleType, false)
+            .add("centroid_lat", DataTypes.DoubleType, false);
+
+    /** One row per district (and one for cells outside every district, or one for all cells). */
+    static final StructType DISTRICTS = new StructType()
+            .add("district_id", DataTypes.StringType, true)
+            .add("district_name", DataTypes.StringType, false)
+            .add("cells", DataTypes.LongType, false)
+            .add("area_m2", DataTypes.DoubleType, false)
+            .add("mean_value", DataTypes.DoubleType, true)
+            .add("hot_cells", DataTypes.LongType, false)
+            .add("hot_area_m2", DataTypes.DoubleType, false)
+            .add("hot_share", DataTypes.DoubleType, true)
+            .add("hot_99_cells", DataTypes.LongType, false)
+            .add("cold_cells", DataTypes.LongType, false)
+            .add("cold_area_m2", DataTypes.DoubleType, false)
+            .add("cold_share", DataTypes.DoubleType, true)
+            .add("cold_99_cells", DataTypes.LongType, false)
+            .add("hot_polygons", DataTypes.IntegerType, false)
+            .add("cold_polygons", DataTypes.IntegerType, false);
+
+    static void write(SparkSession spark, List<Row> rows, StructType schema, Path dir) {
+        spark.createDataFrame(rows, schema).coalesce(1).write().mode(SaveMode.ErrorIfExists)
+                .parquet(dir.toUri().toString());
+        renameParts(dir);
+    }
+
+    private static final Pattern PART = Pattern.compile("part-(\\d+)-.*?(\\.[a-z0-9]+)?\\.parquet");
+
+    /** part-00000-&lt;uuid&gt;-c000.snappy.parquet → part-00000.snappy.parquet; checksum files removed. */
+    static void renameParts(Path dir) {
+        try (Stream<Path> s = Files.list(dir)) {
+            for (Path f : s.sorted().toList()) {
+                String n = f.getFileName().toString();
+                if (n.endsWith(".crc")) {
+                    Files.delete(f);
+                    continue;
+                }
+                Matcher m = PART.matcher(n);
+                if (m.matches()) {
+                    String ext = m.group(2) == null ? "" : m.group(2);
+                    Files.move(f, dir.resolve("part-" + m.group(1) + ext + ".parquet"));
+                }
+            }
+        } catch (IOException e) {
+            throw new UncheckedIOException(e);
+        }
+    }
+}

@@ -1,0 +1,53 @@
+package org.thermotile.jobs.cli;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import java.io.PrintWriter;
+import java.io.StringWriter;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import org.thermotile.jobs.hotspots.HotspotFixture;
+import picocli.CommandLine;
+
+/**
+ * The hotspots command through picocli, registered the way Main registers commands: bad input
+ * exits with 2 before Spark starts; a good run exits with 0 and writes the folder.
+ */
+class HotspotsCommandTest {
+    @TempDir
+    Path dir;
+
+    static CommandLine cli(StringWriter err) {
+        CommandLine cl = Main.newCommandLine();
+        cl.addSubcommand("hotspots", new HotspotsCommand());
+        cl.setErr(new PrintWriter(err, true));
+        return cl;
+    }
+
+    @Test
+    void badInputExitsWithTwoAndNamesTheFix() throws Exception {
+        Path run = HotspotFixture.write(dir.resolve("run"));
+        StringWriter err = new StringWriter();
+        assertEquals(2, cli(err).execute("hotspots", run.toString(), "--distance", "2"));
+        assertTrue(err.toString().contains("thermotile hotspots: --distance 2 m is smaller than one cell"), err.toString());
+        StringWriter err2 = new StringWriter();
+        assertEquals(2, cli(err2).execute("hotspots", run.toString(), "--weights", "gaussian"));
+        assertTrue(err2.toString().contains("binary or inverse_distance"), err2.toString());
+        StringWriter err3 = new StringWriter();
+        assertEquals(2, cli(err3).execute("hotspots", run.toString(), "--statistic", "nightmin"));
+        assertTrue(err3.toString().contains("did you mean 'night_min'?"), err3.toString());
+    }
+
+    @Test
+    void goodRunExitsWithZero() throws Exception {
+        Path run = HotspotFixture.write(dir.resolve("run"));
+        StringWriter err = new StringWriter();
+        int code = cli(err).execute("hotspots", run.toString(), "--statistic", "night_min", "--distance", "20",
+                "--weights", "inverse_distance", "--fdr", "0.05", "--tile-size", "64", "--threads", "2");
+        assertEquals(0, code, err.toString());
+        assertTrue(Files.isRegularFile(run.resolve("hotspots/night_min/class.tif")));
+    }
+}
