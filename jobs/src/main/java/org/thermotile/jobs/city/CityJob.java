@@ -182,6 +182,12 @@ public final class CityJob {
         if (plan.variants().size() > 1) {
             Comparison.write(spark, p, tmp);
         }
+        HotspotsBlock hs = HotspotsBlock.of(p.run(), p.grid().pixelWidth());
+        if (hs != null) {
+            for (String stat : hs.statistics()) {
+                org.thermotile.jobs.hotspots.Hotspots.run(spark, tmp, hs.options(stat, p.run().tiling().tileSize()));
+            }
+        }
         return s;
     }
 

@@ -61,6 +61,7 @@ public final class RunPreparer {
                     + "axes, raise max_scenarios, or confirm with --confirm-sweep");
         }
         PreparedRun p = prepareInputs(run);
+        HotspotsBlock.of(run, p.grid().pixelWidth()); // checked now, used after the simulation
         return p.withPlan(ScenarioPlanner.plan(p, run.scenarios()));
     }
 

@@ -77,7 +77,8 @@ public final class HotspotsCommand implements Callable<Integer> {
         if (ref == null) {
             throw new UserInputException("--reference '" + reference + "' is unknown. Fix: give baseline or scenario");
         }
-        return new HotspotOptions(statistic, scenario, distanceM, w, fdr, tileSize, replace, null, ref);
+        return new HotspotOptions(statistic, scenario, distanceM, w, fdr, tileSize, replace,
+                org.thermotile.jobs.hotspots.DistrictCells.GEOJSON, ref);
     }
 
     @Override

@@ -6,10 +6,7 @@ import org.thermotile.jobs.io.raster.RasterGrid;
 
 /**
  * The districts a hotspot analysis reports on: their ids and names, and each cell's district.
- * The shape of {@code org.thermotile.jobs.io.districts.Districts}; an adapter is one line:
- * {@code (file, grid) -> { Districts d = Districts.read(file, grid); return DistrictCells.of(
- * d.districts().stream().map(x -> new DistrictCells.District(x.index(), x.id(), x.name())).toList(),
- * d.cellDistrict()); }}.
+ * {@link #GEOJSON} reads them with {@code org.thermotile.jobs.io.districts.Districts}.
  */
 public interface DistrictCells {
 
@@ -31,6 +28,13 @@ public interface DistrictCells {
 
     /** The loader used when none is wired in: districts are left out, with a note. */
     Loader NOT_AVAILABLE = (file, grid) -> null;
+
+    /** Districts from the run's GeoJSON, as the city job reads them. */
+    Loader GEOJSON = (file, grid) -> {
+        org.thermotile.jobs.io.districts.Districts d = org.thermotile.jobs.io.districts.Districts.read(file, grid);
+        return of(d.districts().stream().map(x -> new District(x.index(), x.id(), x.name())).toList(),
+                d.cellDistrict());
+    };
 
     /** Districts from lists. */
     static DistrictCells of(List<District> districts, int[] cellDistrict) {
