@@ -149,7 +149,34 @@ public final class RunReport {
         if (p.isMissingNode()) {
             return "";
         }
-        return p.path("start").asText() + " to " + p.path("end").asText();
+        return periodText(p.path("start").asText(""), p.path("end").asText(""));
+    }
+
+    /**
+     * The period as a reader says it: whole local days as inclusive dates ("2026-07-15 to
+     * 2026-07-16" for a start of 2026-07-15T00:00 and an end of 2026-07-17T00:00, as the resolved
+     * run file writes it), otherwise the local times as given.
+     */
+    static String periodText(String start, String end) {
+        try {
+            java.time.LocalDateTime s = parseLocal(start, false), e = parseLocal(end, true);
+            if (s.toLocalTime().equals(java.time.LocalTime.MIDNIGHT) && e.toLocalTime().equals(java.time.LocalTime.MIDNIGHT)
+                    && e.isAfter(s)) {
+                return s.toLocalDate() + " to " + e.toLocalDate().minusDays(1);
+            }
+            return s.toString().replace('T', ' ') + " to " + e.toString().replace('T', ' ');
+        } catch (java.time.format.DateTimeParseException ex) {
+            return start + " to " + end;
+        }
+    }
+
+    /** A date-time as written, or a plain date as the run file means it (an end date is inclusive). */
+    private static java.time.LocalDateTime parseLocal(String t, boolean end) {
+        if (t.contains("T")) {
+            return java.time.LocalDateTime.parse(t);
+        }
+        LocalDate d = LocalDate.parse(t);
+        return (end ? d.plusDays(1) : d).atStartOfDay();
     }
 
     private String subtitleText() {
@@ -166,8 +193,8 @@ public final class RunReport {
         JsonNode timing = manifest.path("timing");
         body.append("<div class=\"cols\">\n<div>\n<h3>Period and weather</h3>\n<dl>\n");
         JsonNode p = rf.path("period");
-        dd("Period", Html.esc(p.path("start").asText("?")) + " to " + Html.esc(p.path("end").asText("?"))
-                + " (local dates, inclusive)");
+        String per = period();
+        dd("Period", Html.esc(per) + (per.length() <= 24 ? " (local dates, inclusive)" : " (local time)"));
         dd("Spin-up", plural(p.path("spin_up_days").asLong(), "day") + " simulated before the start, not counted");
         dd("Hours", fmtInt(sim.path("hours").asLong()) + " simulated, " + fmtInt(sim.path("counted_hours").asLong())
                 + " counted");
@@ -220,10 +247,10 @@ public final class RunReport {
         body.append("</tbody></table>\n");
         JsonNode mats = sim.path("materials");
         if (mats.size() > 0) {
-            body.append("<p class=\"small\">Land-cover classes and their materials: ");
+            body.append("<p class=\"small\">Materials: ");
             List<String> parts = new ArrayList<>();
-            mats.fields().forEachRemaining(e -> parts.add(Html.esc(e.getKey()) + " → <code>"
-                    + Html.esc(e.getValue().asText()) + "</code>"));
+            mats.fields().forEachRemaining(e -> parts.add("<code>" + Html.esc(e.getKey()) + "</code> "
+                    + Html.esc(e.getValue().asText())));
             body.append(String.join("; ", parts)).append(".</p>\n");
         }
         JsonNode mnotes = manifest.path("notes");

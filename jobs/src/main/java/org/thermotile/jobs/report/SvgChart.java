@@ -10,7 +10,7 @@ import java.util.Locale;
  * font stack). Points with a NaN y break the line.
  */
 final class SvgChart {
-    static final int LEFT = 58, RIGHT_LEGEND = 190, TOP = 16, BOTTOM = 46;
+    static final int LEFT = 58, RIGHT_LEGEND = 250, TOP = 16, BOTTOM = 46;
 
     /** A line: its legend label, points, stroke colour, SVG dash pattern (null = solid), width [px], dots at points. */
     record Series(String label, double[] x, double[] y, String colour, String dash, double width, boolean markers) {
@@ -158,8 +158,8 @@ final class SvgChart {
                 double lx = LEFT + pw + 14;
                 b.append(String.format(Locale.ROOT, "<line x1=\"%.1f\" x2=\"%.1f\" y1=\"%.1f\" y2=\"%.1f\" stroke=\"%s\" "
                         + "stroke-width=\"%.1f\"%s/>", lx, lx + 24, ly, ly, s.colour(), s.width(), dash(s.dash())));
-                b.append(String.format(Locale.ROOT, "<text x=\"%.1f\" y=\"%.1f\">%s</text>\n", lx + 30, ly + 4,
-                        Html.esc(s.label())));
+                b.append(String.format(Locale.ROOT, "<text x=\"%.1f\" y=\"%.1f\">%s<title>%s</title></text>\n", lx + 30,
+                        ly + 4, Html.esc(shorten(s.label(), LEGEND_CHARS)), Html.esc(s.label())));
                 ly += 18;
             }
             for (Band band : bands) {
@@ -171,6 +171,13 @@ final class SvgChart {
         }
         b.append("</g>\n</svg>");
         return b.toString();
+    }
+
+    /** Longest legend label shown whole; longer ones end in "…" (the whole label is the tooltip). */
+    static final int LEGEND_CHARS = 30;
+
+    static String shorten(String s, int max) {
+        return s.length() <= max ? s : s.substring(0, max - 1) + "…";
     }
 
     private static String dash(String d) {

@@ -217,7 +217,7 @@ final class FakeRun {
         }
         rf.putObject("weather").putObject("synthetic").put("t_min_c", 20).put("t_max_c", 33)
                 .put("rel_humidity_pct", 45).put("wind_ms", 2).put("utc_offset", "+02:00");
-        rf.putObject("period").put("start", "2026-07-15").put("end", "2026-07-16").put("spin_up_days", 1);
+        rf.putObject("period").put("start", "2026-07-15T00:00").put("end", "2026-07-17T00:00").put("spin_up_days", 1);
         ObjectNode out = rf.putObject("outputs");
         out.putArray("maps").add("peak").add("mean").add("night_min").add("degree_hours");
         out.put("threshold_c", 45);

@@ -431,6 +431,14 @@ class RunReportTest {
                 && e.getMessage().contains("Fix:"), e.getMessage());
     }
 
+    /** The resolved run file writes whole days as midnight to midnight; the page shows inclusive dates. */
+    @Test
+    void periodReadsAsInclusiveDates() {
+        assertEquals("2026-07-15 to 2026-07-16", RunReport.periodText("2026-07-15T00:00", "2026-07-17T00:00"));
+        assertEquals("2026-07-15 to 2026-07-16", RunReport.periodText("2026-07-15", "2026-07-16"));
+        assertEquals("2026-07-13 06:00 to 2026-07-19 18:00", RunReport.periodText("2026-07-13T06:00", "2026-07-19T18:00"));
+    }
+
     static void copyTree(Path from, Path to) throws IOException {
         try (Stream<Path> s = Files.walk(from)) {
             for (Path p : s.toList()) {
