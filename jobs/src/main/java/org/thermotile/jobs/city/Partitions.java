@@ -53,13 +53,17 @@ final class Partitions {
         return keys;
     }
 
-    /** Files of a variant's partition, relative to the run folder, sorted. */
+    /**
+     * Files of a variant's partition, relative to the run folder, sorted: its GeoTIFF maps (not the
+     * comparison's delta maps, nor the report's PNGs) and its part of every table.
+     */
     static List<String> files(Path runDir, String variant) throws IOException {
         List<String> out = new ArrayList<>();
         Path maps = mapsDir(runDir, variant);
         if (Files.isDirectory(maps)) {
             try (Stream<Path> s = Files.list(maps)) {
-                s.filter(f -> !f.getFileName().toString().startsWith("delta_"))
+                s.filter(f -> f.getFileName().toString().endsWith(".tif")
+                                && !f.getFileName().toString().startsWith("delta_"))
                         .forEach(f -> out.add(runDir.relativize(f).toString()));
             }
         }

@@ -78,6 +78,13 @@ final class RunCommand implements Callable<Integer> {
             console.println("  comparison/summary.md, ranking.csv, districts.csv");
         }
         console.println("  manifest.json");
+        try {
+            java.nio.file.Path report = org.thermotile.jobs.report.RunReport.write(s.outDir());
+            console.println("  report:    " + report + " (open it in a browser)");
+        } catch (RuntimeException e) {
+            // The run itself is complete and published; only its report is missing.
+            console.println("  report:    not written (" + e.getMessage() + "); retry with: thermotile report " + s.outDir());
+        }
         console.println("Surface temperature is not air temperature nor a heat-health index.");
         return s;
     }

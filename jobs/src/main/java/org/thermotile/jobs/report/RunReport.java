@@ -436,8 +436,8 @@ public final class RunReport {
     }
 
     private void curvesSection() {
-        Path mh = dir.resolve("tables/material_hours");
-        Path dh = dir.resolve("tables/district_hours");
+        Path mh = baselinePartition(dir.resolve("tables/material_hours"));
+        Path dh = baselinePartition(dir.resolve("tables/district_hours"));
         boolean hasMaterials = Files.exists(mh), hasDistricts = Files.exists(dh);
         section("curves", "Curves");
         if (!hasMaterials) {
@@ -715,13 +715,20 @@ public final class RunReport {
         return dir.relativize(p).toString().replace('\\', '/');
     }
 
+    /** Tables are partitioned by scenario: the report's curves are the baseline's. */
+    static Path baselinePartition(Path table) {
+        Path b = table.resolve("scenario=baseline");
+        return Files.isDirectory(b) ? b : table;
+    }
+
     // ------------------------------------------------------------------------------ scenarios
 
     private void scenariosSection() {
         Path root = dir.resolve("scenarios");
         List<Path> names = list(root).stream().filter(Files::isDirectory)
                 .filter(p -> !p.getFileName().toString().equals("ranking")).toList();
-        Optional<Path> ranking = Stream.of(root.resolve("ranking"), root.resolve("ranking.parquet"), root.resolve("ranking.csv"))
+        Optional<Path> ranking = Stream.of(dir.resolve("comparison").resolve("ranking.csv"), root.resolve("ranking"),
+                        root.resolve("ranking.parquet"), root.resolve("ranking.csv"))
                 .filter(Files::exists).findFirst();
         if (names.isEmpty() && ranking.isEmpty()) {
             return;
@@ -736,7 +743,11 @@ public final class RunReport {
             body.append("<h3>Ranking</h3>\n<table class=\"data\" id=\"ranking\"><thead><tr>");
             t.columns().forEach(c -> body.append("<th>").append(Html.esc(c.replace('_', ' '))).append("</th>"));
             body.append("</tr></thead><tbody>\n");
+            int districtCol = t.columns().indexOf("district");
             for (Object[] row : t.rows()) {
+                if (districtCol >= 0 && !"(all)".equals(String.valueOf(row[districtCol]))) {
+                    continue; // the whole grid here; per-district ranks stay in the file
+                }
                 body.append("<tr>");
                 for (Object v : row) {
                     body.append(v instanceof Number ? "<td class=\"n\">" : "<td>").append(Html.esc(cellText(v))).append("</td>");
@@ -744,7 +755,8 @@ public final class RunReport {
                 body.append("</tr>\n");
             }
             body.append("</tbody></table>\n<p class=\"small\">As written in <code>").append(Html.esc(rel(rk)))
-                    .append("</code>, in its order.</p>\n");
+                    .append("</code>, in its order").append(districtCol >= 0 ? " (whole grid; per-district ranks in the file)" : "")
+                    .append(".</p>\n");
         }
         for (Path sc : names) {
             String name = sc.getFileName().toString();
