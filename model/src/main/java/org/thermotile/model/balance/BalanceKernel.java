@@ -2,6 +2,7 @@ package org.thermotile.model.balance;
 
 import org.thermotile.model.air.Psychrometrics;
 import org.thermotile.model.constants.Physical;
+import org.thermotile.model.geometry.GeometryFactors;
 
 /**
  * The surface energy balance of every cell of a block, stepped implicitly.
@@ -24,6 +25,11 @@ import org.thermotile.model.constants.Physical;
  * that closure can be checked ({@link SurfaceBlock#closureResidualFraction}).
  *
  * <p>Sign convention: radiative terms positive towards the surface; H, LE, G positive away from it.
+ *
+ * <p>Urban geometry (only for a block with {@link SurfaceBlock#useGeometry}): K↓ and L↓ are
+ * replaced per cell by {@code b·K_beam,h + Ψ·K_dif,h} and {@code Ψ·L↓ + (1 − Ψ)·ε_w σ T_a⁴}
+ * ({@link GeometryFactors}), b interpolated linearly in time between the hour's beam factors.
+ * A block without geometry takes exactly the former path (K↓ = GHI, L↓ as given).
  */
 public final class BalanceKernel {
     private BalanceKernel() {}
@@ -99,6 +105,16 @@ public final class BalanceKernel {
         final double[] up = block.coupleUp;
         final double[] pj = block.scratchP;
         final boolean record = block.recordFluxes;
+        // Urban geometry, when the block has it (else these stay unused).
+        final double[] svf = block.skyViewFactor;
+        final boolean geometry = svf != null;
+        final double[] bStart = block.beamFactorStart;
+        final double[] bEnd = block.beamFactorEnd;
+        final double beamH = sf.beamHorizontalWm2[m];
+        final double diffuseH = sf.diffuseHorizontalWm2[m];
+        final double hourFraction = (double) (m % sf.substepsPerHour + 1) / sf.substepsPerHour;
+        final double wallLw = geometry
+                ? GeometryFactors.wallEmittedWm2(block.wallEmissivity, GeometryFactors.wallTempK(ta)) : 0.0;
 
         for (int c = 0; c < block.cells; c++) {
             final int s = block.nodeStart[c];
@@ -118,8 +134,17 @@ public final class BalanceKernel {
             final double es = eps * SIGMA;
             final double bq = beta * evap;
             final double t0Old = temp[s];
-            final double sw = block.absorptance[c] * kDown;
-            final double lwIn = eps * lDown;
+            final double sw;
+            final double lwIn;
+            if (geometry) {
+                double psi = svf[c];
+                double b = bStart[c] + hourFraction * (bEnd[c] - bStart[c]);
+                sw = block.absorptance[c] * GeometryFactors.shortwaveDownWm2(beamH, diffuseH, b, psi);
+                lwIn = eps * GeometryFactors.longwaveDownWm2(psi, lDown, wallLw);
+            } else {
+                sw = block.absorptance[c] * kDown;
+                lwIn = eps * lDown;
+            }
             final double qf = block.anthropogenicWm2[c];
             final double rhs = capDt[s] * t0Old + cond[s] * pNext + sw + lwIn + qf + hc * ta + bq * qa;
             final double a0 = block.surfaceSlope[c] + hc;

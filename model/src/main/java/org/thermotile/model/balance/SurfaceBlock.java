@@ -61,6 +61,15 @@ public final class SurfaceBlock {
     /** Column heat content Σ C_j T_j at the start of accounting [J m⁻²]. */
     final double[] heatContentStartJm2;
 
+    // Urban geometry (null when the block has none: then the kernel's radiation is unscaled).
+    /** Sky view factor Ψ per cell [–], or null. */
+    double[] skyViewFactor;
+    /** Beam factor per cell at the start and at the end of the current hour [–] (0 shade … 1 sun). */
+    double[] beamFactorStart;
+    double[] beamFactorEnd;
+    /** Wall emissivity ε_w of the wall longwave term [–]. */
+    double wallEmissivity;
+
     // Per-cell fluxes of the latest sub-step, or the hour's means when recording [W m⁻²].
     final boolean recordFluxes;
     final double[][] flux;
@@ -164,6 +173,64 @@ public final class SurfaceBlock {
             return 0;
         }
         return (energyInJm2[c] - (heatContentJm2(c) - heatContentStartJm2[c])) / gross;
+    }
+
+    /**
+     * Turns on urban geometry for this block: from now on the kernel scales each cell's radiation
+     * as in {@link org.thermotile.model.geometry.GeometryFactors} (beam by the beam factor, diffuse
+     * and sky longwave by Ψ, wall longwave at the air temperature filling 1 − Ψ). Beam factors
+     * start at 1 (sunlit) until {@link #beamFactors} sets them.
+     *
+     * @param skyViewFactor  Ψ per cell [–], 0…1 (copied)
+     * @param wallEmissivity ε_w [–], 0…1
+     */
+    public void useGeometry(double[] skyViewFactor, double wallEmissivity) {
+        checkPerCell("sky view factors", skyViewFactor);
+        if (!(wallEmissivity >= 0 && wallEmissivity <= 1)) {
+            throw new IllegalArgumentException("wall emissivity " + wallEmissivity + ": must be 0…1");
+        }
+        this.skyViewFactor = skyViewFactor.clone();
+        this.wallEmissivity = wallEmissivity;
+        beamFactorStart = new double[cells];
+        beamFactorEnd = new double[cells];
+        java.util.Arrays.fill(beamFactorStart, 1.0);
+        java.util.Arrays.fill(beamFactorEnd, 1.0);
+    }
+
+    /** True once {@link #useGeometry} was called. */
+    public boolean hasGeometry() {
+        return skyViewFactor != null;
+    }
+
+    /**
+     * Sets the beam factors [–] at the start and at the end of the next hour to be stepped; the
+     * kernel interpolates linearly between them at each sub-step's end time, as it does the
+     * beam irradiance (copied; no allocation).
+     */
+    public void beamFactors(double[] atHourStart, double[] atHourEnd) {
+        if (!hasGeometry()) {
+            throw new IllegalStateException("this block has no geometry: call useGeometry first");
+        }
+        checkPerCell("beam factors at the hour's start", atHourStart);
+        checkPerCell("beam factors at the hour's end", atHourEnd);
+        System.arraycopy(atHourStart, 0, beamFactorStart, 0, cells);
+        System.arraycopy(atHourEnd, 0, beamFactorEnd, 0, cells);
+    }
+
+    /** Sky view factor Ψ of cell {@code c} [–] (1 without geometry). */
+    public double skyViewFactor(int c) {
+        return skyViewFactor == null ? 1.0 : skyViewFactor[c];
+    }
+
+    private void checkPerCell(String what, double[] v) {
+        if (v.length != cells) {
+            throw new IllegalArgumentException(what + ": " + v.length + " values for " + cells + " cells");
+        }
+        for (int c = 0; c < cells; c++) {
+            if (!(v[c] >= 0 && v[c] <= 1)) {
+                throw new IllegalArgumentException(what + " of cell " + c + " is " + v[c] + ": must be 0…1");
+            }
+        }
     }
 
     /** Sets the implicit-step coefficients for sub-step {@code dt} [s]; the grids do not change. */
