@@ -35,6 +35,14 @@ final class MapOutputs {
             GeoTiffWriter.writeFloat(mapsDir.resolve(name), grid, full, CityJob.MAP_NODATA);
             written.add("maps/" + name);
         }
+        if (p.spec().geometry() != null) {
+            // Urban geometry: sky view factor (a fraction) and sun hours lost to cast shadows.
+            for (String name : List.of("sky_view_factor", "shaded_hours")) {
+                float[] full = assemble(grid, tiles, name.equals("sky_view_factor") ? r -> r.skyViewFactor : r -> r.shadedHours);
+                GeoTiffWriter.writeFloat(mapsDir.resolve(name + ".tif"), grid, full, CityJob.MAP_NODATA);
+                written.add("maps/" + name + ".tif");
+            }
+        }
         long[] hours = p.hourlyEpochSeconds();
         if (hours.length > 0) {
             // One stack per day: bands are that day's hours in order.

@@ -114,6 +114,7 @@ public final class RunPreparer {
                     + (noData != null ? " (" + noData + ")" : "")
                     + ", so there is nothing to simulate. Fix: check the nodata value and the extent");
         }
+        double tallest = 0;
         if (in.heights() != null) {
             Path heights = localPath(in.heights(), "inputs.heights");
             inputs.put("heights", heights.toString());
@@ -123,8 +124,24 @@ public final class RunPreparer {
                             + landCover.getFileName() + "): " + d + ". Fix: resample the heights onto "
                             + "the land-cover grid (e.g. gdalwarp -te/-tr/-t_srs matching it)");
                 });
+                for (TileSpec t : TileSpec.plan(grid.width(), grid.height(), tileSize)) {
+                    float[] v = h.readFloatWindow(t.col0(), t.row0(), t.width(), t.height());
+                    for (int i = 0; i < v.length; i++) {
+                        float x = v[i];
+                        if (Float.isNaN(x)) {
+                            continue; // nodata: no structure, 0 m
+                        }
+                        if (!(x >= 0 && x <= 1000)) {
+                            throw new UserInputException(heights + ": height " + x + " m at row " + (t.row0() + i / t.width())
+                                    + ", column " + (t.col0() + i % t.width()) + " is outside 0…1000 m. Fix: heights are "
+                                    + "metres above ground; fill holes with 0 or the nodata value");
+                        }
+                        tallest = Math.max(tallest, x);
+                    }
+                }
             }
         }
+        GeometryBlock geometry = GeometryBlock.of(run, grid.pixelWidth(), tallest);
         Districts districts = null;
         if (in.districts() != null) {
             Path d = localPath(in.districts(), "inputs.districts");
@@ -242,7 +259,7 @@ public final class RunPreparer {
                 hourlyIdx.stream().mapToInt(Integer::intValue).toArray());
         TileJobSpec spec = new TileJobSpec(landCover.toString(), grid, palette.toArray(new Material[0]), lut,
                 districts == null ? List.of() : districts.geometries(), used, settings,
-                in.heights() == null ? null : localPath(in.heights(), "inputs.heights").toString());
+                in.heights() == null ? null : localPath(in.heights(), "inputs.heights").toString(), geometry);
         List<String> districtNames = districts == null ? List.of()
                 : districts.districts().stream().map(Districts.District::name).toList();
         return new PreparedRun(run, grid, spec, TileSpec.plan(grid.width(), grid.height(), tileSize),

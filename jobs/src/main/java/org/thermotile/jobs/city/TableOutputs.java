@@ -42,7 +42,8 @@ final class TableOutputs {
             .add("night_min_c", DataTypes.DoubleType, true)
             .add("peak_hour", DataTypes.IntegerType, false)
             .add("hours_above", DataTypes.IntegerType, false)
-            .add("degree_hours", DataTypes.DoubleType, false);
+            .add("degree_hours", DataTypes.DoubleType, false)
+            .add("sky_view_factor", DataTypes.DoubleType, true);
 
     static final StructType CELL_HOURS = new StructType()
             .add("scenario", DataTypes.StringType, false)
@@ -79,7 +80,7 @@ final class TableOutputs {
                                 : districts.get(o.districtIndex()[i]),
                         r.peakC[i], r.meanC[i],
                         Double.isNaN(night) ? null : night, (int) r.peakHour[i], (int) r.hoursAbove[i],
-                        r.degreeHoursAbove[i]));
+                        r.degreeHoursAbove[i], r.skyViewFactor == null ? null : r.skyViewFactor[i]));
             }
             return out.iterator();
         });

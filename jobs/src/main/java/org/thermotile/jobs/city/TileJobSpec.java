@@ -16,8 +16,10 @@ import org.thermotile.model.tile.TileSimulation;
  *                      {@link TileSimulation#NO_MATERIAL} (nodata)
  * @param districts     district polygons in the grid's CRS (empty without districts)
  * @param heights       heights raster location, or null
+ * @param geometry      urban geometry settings (null without heights)
  */
 public record TileJobSpec(String landCover, RasterGrid grid, Material[] palette, int[] codeToPalette,
-        List<Geometry> districts, Forcing forcing, TileSimulation.Settings settings, String heights)
+        List<Geometry> districts, Forcing forcing, TileSimulation.Settings settings, String heights,
+        GeometryBlock geometry)
         implements java.io.Serializable {
 }

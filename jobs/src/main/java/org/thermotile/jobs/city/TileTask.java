@@ -11,6 +11,48 @@ import org.thermotile.model.tile.TileSimulation;
 public final class TileTask {
     private TileTask() {}
 
+    /**
+     * The tile's heights with a halo of context (outside the raster: 0 m), split into buildings
+     * and trees by the land cover (tree-canopy cells are trees).
+     */
+    static TileSimulation.Geometry geometry(TileSpec tile, TileJobSpec spec) {
+        GeometryBlock g = spec.geometry();
+        int halo = g.haloCells();
+        int wc = tile.width() + 2 * halo;
+        int wr = tile.height() + 2 * halo;
+        float[] buildings = new float[wc * wr];
+        float[] trees = new float[wc * wr];
+        int c0 = Math.max(0, tile.col0() - halo);
+        int r0 = Math.max(0, tile.row0() - halo);
+        int c1 = Math.min(spec.grid().width(), tile.col0() + tile.width() + halo);
+        int r1 = Math.min(spec.grid().height(), tile.row0() + tile.height() + halo);
+        float[] h;
+        int[] codes;
+        try (GeoTiffReader hr = GeoTiffReader.openSingleBand(Path.of(spec.heights()));
+                GeoTiffReader lc = GeoTiffReader.openSingleBand(Path.of(spec.landCover()))) {
+            h = hr.readFloatWindow(c0, r0, c1 - c0, r1 - r0);
+            codes = lc.readIntWindow(c0, r0, c1 - c0, r1 - r0);
+        }
+        int[] lut = spec.codeToPalette();
+        Material[] palette = spec.palette();
+        for (int r = r0; r < r1; r++) {
+            for (int c = c0; c < c1; c++) {
+                int src = (r - r0) * (c1 - c0) + (c - c0);
+                int dst = (r - tile.row0() + halo) * wc + (c - tile.col0() + halo);
+                float v = Float.isNaN(h[src]) ? 0f : h[src];
+                int code = codes[src];
+                int m = code >= 0 && code < lut.length ? lut[code] : -1;
+                if (m >= 0 && ScenarioPlanner.TREES.equals(palette[m].id())) {
+                    trees[dst] = v;
+                } else {
+                    buildings[dst] = v;
+                }
+            }
+        }
+        return new TileSimulation.Geometry(buildings, trees, wc, wr, halo, spec.grid().pixelWidth(), g.searchRadiusM(),
+                g.directions(), g.canopyTransmissivity(), g.minSunElevationDeg(), g.wallEmissivity());
+    }
+
     public static TileOutput run(TileSpec tile, TileJobSpec spec) {
         return run(tile, spec, null, null, null);
     }
@@ -60,8 +102,9 @@ public final class TileTask {
                 idx[i] = cur;
             }
         }
+        TileSimulation.Geometry geom = spec.geometry() == null ? null : geometry(tile, spec);
         TileSimulation.Result res = TileSimulation.run(palette, idx, district, spec.districts().size(),
-                spec.forcing(), spec.settings());
+                spec.forcing(), spec.settings(), geom);
         return new TileOutput(variant == null ? "baseline" : variant.name(), tile, codes, idx, district, res,
                 (System.nanoTime() - t0) / 1e9);
     }

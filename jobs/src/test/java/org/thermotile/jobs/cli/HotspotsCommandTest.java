@@ -22,7 +22,6 @@ class HotspotsCommandTest {
 
     static CommandLine cli(StringWriter err) {
         CommandLine cl = Main.newCommandLine();
-        cl.addSubcommand("hotspots", new HotspotsCommand());
         cl.setErr(new PrintWriter(err, true));
         return cl;
     }

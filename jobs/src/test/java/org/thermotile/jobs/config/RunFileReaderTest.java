@@ -89,7 +89,8 @@ class RunFileReaderTest {
         assertEquals(45.0, rf.outputs().thresholdC());
         assertEquals(List.of(LocalDate.of(2026, 7, 16)), rf.outputs().hourlyDays());
         assertEquals(256, rf.tiling().tileSize());
-        assertTrue(rf.reserved().isEmpty());
+        assertEquals(java.util.Set.of("hotspots", "scenarios", "sweep"), rf.reserved().keySet());
+        assertEquals(5, rf.scenarios().size(), "three programmes and a two-value sweep");
         assertEquals(EXAMPLE.toAbsolutePath().normalize().toString(), rf.source());
     }
 
@@ -146,7 +147,8 @@ class RunFileReaderTest {
 
     @Test
     void reservedSectionsAreKeptRaw() {
-        RunFile rf = parse(MINIMAL + "scenarios:\n  - {name: cool-roofs, albedo: 0.7}\nreport: {title: x}\n");
+        RunFile rf = parse(MINIMAL + "scenarios:\n  - {name: cool-roofs, changes: [{targets: {codes: [1]}, set: {albedo: 0.7}}]}\n"
+                + "report: {title: x}\n");
         assertEquals(2, rf.reserved().size());
         JsonNode sc = rf.reserved("scenarios");
         assertEquals("cool-roofs", sc.get(0).get("name").asText());
@@ -171,8 +173,8 @@ class RunFileReaderTest {
         assertEquals(rf.name(), back.name());
 
         JsonNode json = new ObjectMapper().readTree(rf.toJson());
-        assertEquals(List.of("name", "site", "inputs", "weather", "period", "physics", "outputs", "tiling"),
-                iterate(json));
+        assertEquals(List.of("name", "site", "inputs", "weather", "period", "physics", "outputs", "tiling",
+                "hotspots", "scenarios", "sweep"), iterate(json));
         assertEquals("2026-07-20T00:00", json.get("period").get("end").asText());
         assertTrue(json.get("physics").get("deep_ground_temp_c").isNull());
         assertEquals(rf.toJson(), RunFileReader.read(EXAMPLE).toJson(), "deterministic output");
@@ -180,7 +182,7 @@ class RunFileReaderTest {
         // A fixed coefficient and synthetic weather round-trip too.
         RunFile syn = parse(MINIMAL.replace("file: weather.csv", "synthetic: {t_min_c: -3.5, t_max_c: 4, "
                 + "rel_humidity_pct: 80, wind_ms: 0, utc_offset: Z}") + "physics: {convection: 5.5}\n"
-                + "scenarios: [{name: a}]\n");
+                + "scenarios: [{name: a, changes: [{targets: {codes: [3]}, set: {albedo: 0.5}}]}]\n");
         RunFile synBack = parse(syn.toYaml());
         assertEquals(syn.weather(), synBack.weather());
         assertEquals(syn.physics(), synBack.physics());
