@@ -77,10 +77,10 @@ class RunFileReaderTest {
         assertEquals(dir.resolve("weather.csv").toString(), rf.weather().file());
         assertEquals(3, rf.weather().fillGapsMaxHours());
         assertFalse(rf.weather().isSynthetic());
-        assertEquals(LocalDateTime.of(2026, 7, 13, 0, 0), rf.period().start());
-        assertEquals(LocalDateTime.of(2026, 7, 20, 0, 0), rf.period().end(), "date end is inclusive");
-        assertEquals(7 * 24, rf.period().hours());
-        assertEquals(LocalDateTime.of(2026, 7, 11, 0, 0), rf.period().simulationStart());
+        assertEquals(LocalDateTime.of(2026, 7, 14, 0, 0), rf.period().start());
+        assertEquals(LocalDateTime.of(2026, 7, 19, 0, 0), rf.period().end(), "date end is inclusive");
+        assertEquals(5 * 24, rf.period().hours());
+        assertEquals(LocalDateTime.of(2026, 7, 12, 0, 0), rf.period().simulationStart());
         assertEquals(10, rf.physics().timestepMinutes());
         assertEquals("mcadams", rf.physics().convection().model());
         assertTrue(Double.isNaN(rf.physics().deepGroundTempC()));
@@ -175,7 +175,7 @@ class RunFileReaderTest {
         JsonNode json = new ObjectMapper().readTree(rf.toJson());
         assertEquals(List.of("name", "site", "inputs", "weather", "period", "physics", "outputs", "tiling",
                 "hotspots", "scenarios", "sweep"), iterate(json));
-        assertEquals("2026-07-20T00:00", json.get("period").get("end").asText());
+        assertEquals("2026-07-19T00:00", json.get("period").get("end").asText());
         assertTrue(json.get("physics").get("deep_ground_temp_c").isNull());
         assertEquals(rf.toJson(), RunFileReader.read(EXAMPLE).toJson(), "deterministic output");
 

@@ -233,8 +233,8 @@ class DemoCityGeneratorTest {
                 rf.inputs().districts(), rf.weather().file())) {
             assertTrue(Files.isRegularFile(Path.of(p)), p + " exists");
         }
-        assertEquals(LocalDateTime.of(2026, 7, 13, 0, 0), rf.period().start());
-        assertEquals(LocalDateTime.of(2026, 7, 20, 0, 0), rf.period().end(), "end date inclusive");
+        assertEquals(LocalDateTime.of(2026, 7, 14, 0, 0), rf.period().start());
+        assertEquals(LocalDateTime.of(2026, 7, 19, 0, 0), rf.period().end(), "end date inclusive");
         assertEquals(2, rf.period().spinUpDays());
         assertEquals(List.of(MapKind.PEAK, MapKind.MEAN, MapKind.NIGHT_MIN, MapKind.PEAK_HOUR,
                 MapKind.DEGREE_HOURS), rf.outputs().maps());
