@@ -288,7 +288,8 @@ class DemoCityGeneratorTest {
         Instant simStart = rf.period().simulationStart().toInstant(cest);
         Instant end = rf.period().end().toInstant(cest);
         read.requireCovers(simStart, end);
-        assertEquals(w.hours(), read.slice(simStart, end).hours(), "the file is exactly the run's span");
+        // The run uses 2026-07-12 … 2026-07-19 (spin-up included) of the invented week.
+        assertEquals(7 * 24 + 1, read.slice(simStart, end).hours(), "the run's span, both ends included");
     }
 
     @Test
