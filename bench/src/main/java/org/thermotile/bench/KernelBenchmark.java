@@ -44,6 +44,10 @@ public class KernelBenchmark {
     @Param({"water", "asphalt_aged", "roof_membrane_white", "grass_irrigated"})
     public String material;
 
+    /** Cells stepped together through an hour; 0 = the whole block per sub-step. */
+    @Param({"256", "0"})
+    public int chunk;
+
     SurfaceBlock block;
     SubstepForcing sf;
     int hour;
@@ -70,8 +74,16 @@ public class KernelBenchmark {
     public double oneHour() {
         int n = sf.substepsPerHour;
         int m0 = (hour % (sf.substeps / n)) * n;
-        for (int s = 0; s < n; s++) {
-            BalanceKernel.step(block, sf, m0 + s);
+        if (chunk == 0) {
+            for (int s = 0; s < n; s++) {
+                BalanceKernel.step(block, sf, m0 + s);
+            }
+        } else {
+            for (int c0 = 0; c0 < CELLS; c0 += chunk) {
+                for (int s = 0; s < n; s++) {
+                    BalanceKernel.step(block, sf, m0 + s, c0, Math.min(CELLS, c0 + chunk));
+                }
+            }
         }
         hour++;
         return block.surfaceTempK(0);

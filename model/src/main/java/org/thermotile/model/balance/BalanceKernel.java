@@ -86,6 +86,16 @@ public final class BalanceKernel {
      * no boxing; an exception only when even the bracketed fallback finds no physical root.
      */
     public static void step(SurfaceBlock block, SubstepForcing sf, int m) {
+        step(block, sf, m, 0, block.cells);
+    }
+
+    /**
+     * Advances cells {@code [from, to)} of {@code block} by sub-step {@code m}. Cells are
+     * independent, so any partition of the cells into ranges gives the same bits; running a
+     * cache-sized range through all sub-steps of an hour before the next range keeps its node
+     * arrays in cache ({@link BlockSimulation}).
+     */
+    public static void step(SurfaceBlock block, SubstepForcing sf, int m, int from, int to) {
         if (block.dtSeconds != sf.dtSeconds) {
             throw new IllegalStateException("block prepared for a " + block.dtSeconds
                     + " s step, forcing has " + sf.dtSeconds + " s");
@@ -116,7 +126,7 @@ public final class BalanceKernel {
         final double wallLw = geometry
                 ? GeometryFactors.wallEmittedWm2(block.wallEmissivity, GeometryFactors.wallTempK(ta)) : 0.0;
 
-        for (int c = 0; c < block.cells; c++) {
+        for (int c = from; c < to; c++) {
             final int s = block.nodeStart[c];
             final int last = s + block.nodeCount[c] - 1;
             final double tb = block.bottomTempK[c];

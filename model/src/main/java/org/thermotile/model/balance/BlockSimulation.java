@@ -13,6 +13,9 @@ import java.util.Arrays;
 public final class BlockSimulation {
     private BlockSimulation() {}
 
+    /** Cells stepped together through an hour: about 180 kB of node state, within a core's L2 cache. */
+    static final int CHUNK_CELLS = 256;
+
     /** Told after each simulated hour. */
     @FunctionalInterface
     public interface HourObserver {
@@ -36,8 +39,13 @@ public final class BlockSimulation {
                 }
             }
             int m0 = (k - 1) * n;
-            for (int s = 0; s < n; s++) {
-                BalanceKernel.step(block, sf, m0 + s);
+            // Each range of cells goes through all the hour's sub-steps while its node arrays
+            // (~0.7 kB a cell) are still in cache; the kernel is otherwise memory-bound.
+            for (int c0 = 0; c0 < block.cells; c0 += CHUNK_CELLS) {
+                int c1 = Math.min(block.cells, c0 + CHUNK_CELLS);
+                for (int s = 0; s < n; s++) {
+                    BalanceKernel.step(block, sf, m0 + s, c0, c1);
+                }
             }
             if (block.recordFluxes) {
                 double inv = 1.0 / n;
