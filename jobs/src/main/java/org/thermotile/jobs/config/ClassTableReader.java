@@ -247,7 +247,7 @@ public final class ClassTableReader {
             if (line.isBlank() || line.stripLeading().startsWith("#")) {
                 continue;
             }
-            List<String> f = splitCsv(line);
+            List<String> f = org.thermotile.jobs.io.Csv.split(line);
             if (f == null) {
                 at.at(place, "unbalanced double quote; close the quoted field");
                 continue;
@@ -347,40 +347,6 @@ public final class ClassTableReader {
             throw new ClassTableException(source, problems);
         }
         return new ClassTable(name, source, null, fallback, entries);
-    }
-
-    /** Fields of one CSV line (RFC 4180 quoting), or null if a quote is left open. */
-    static List<String> splitCsv(String line) {
-        List<String> out = new ArrayList<>();
-        StringBuilder cur = new StringBuilder();
-        boolean quoted = false;
-        for (int i = 0; i < line.length(); i++) {
-            char ch = line.charAt(i);
-            if (quoted) {
-                if (ch == '"') {
-                    if (i + 1 < line.length() && line.charAt(i + 1) == '"') {
-                        cur.append('"');
-                        i++;
-                    } else {
-                        quoted = false;
-                    }
-                } else {
-                    cur.append(ch);
-                }
-            } else if (ch == '"') {
-                quoted = true;
-            } else if (ch == ',') {
-                out.add(cur.toString());
-                cur.setLength(0);
-            } else {
-                cur.append(ch);
-            }
-        }
-        if (quoted) {
-            return null;
-        }
-        out.add(cur.toString());
-        return out;
     }
 
     // ---------------------------------------------------------------- shared checks

@@ -278,36 +278,11 @@ public final class MaterialsFile {
 
     /** Splits one CSV line (RFC 4180 quotes; a quoted cell may not span lines here). */
     static List<String> splitCsvLine(String line, String fileName, int lineNr) {
-        List<String> cells = new ArrayList<>();
-        StringBuilder cell = new StringBuilder();
-        boolean quoted = false;
-        for (int i = 0; i < line.length(); i++) {
-            char ch = line.charAt(i);
-            if (quoted) {
-                if (ch == '"') {
-                    if (i + 1 < line.length() && line.charAt(i + 1) == '"') {
-                        cell.append('"');
-                        i++;
-                    } else {
-                        quoted = false;
-                    }
-                } else {
-                    cell.append(ch);
-                }
-            } else if (ch == '"') {
-                quoted = true;
-            } else if (ch == ',') {
-                cells.add(cell.toString());
-                cell.setLength(0);
-            } else {
-                cell.append(ch);
-            }
-        }
-        if (quoted) {
+        List<String> cells = Csv.split(line);
+        if (cells == null) {
             throw new IllegalArgumentException("materials file '" + fileName + "', line " + lineNr
                     + ": a quoted cell is not closed; add the closing \"");
         }
-        cells.add(cell.toString());
         return cells;
     }
 
