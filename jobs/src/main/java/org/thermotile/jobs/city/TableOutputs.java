@@ -164,7 +164,10 @@ final class TableOutputs {
 
     private static final Pattern PART = Pattern.compile("part-(\\d+)-.*?(\\.[a-z0-9]+)?\\.parquet");
 
-    /** part-00003-&lt;uuid&gt;-c000.snappy.parquet → part-00003.snappy.parquet; checksum files removed. */
+    /**
+     * part-00003-&lt;uuid&gt;-c000.snappy.parquet → part-00003.snappy.parquet, footer in canonical
+     * form ({@link ParquetFooter}); checksum files removed.
+     */
     static void renameParts(Path dir) {
         try (Stream<Path> s = Files.list(dir)) {
             for (Path f : s.sorted().toList()) {
@@ -176,7 +179,8 @@ final class TableOutputs {
                 Matcher m = PART.matcher(n);
                 if (m.matches()) {
                     String ext = m.group(2) == null ? "" : m.group(2);
-                    Files.move(f, dir.resolve("part-" + m.group(1) + ext + ".parquet"));
+                    Path named = Files.move(f, dir.resolve("part-" + m.group(1) + ext + ".parquet"));
+                    ParquetFooter.canonicalise(named);
                 }
             }
         } catch (IOException e) {
