@@ -26,6 +26,7 @@ import org.thermotile.jobs.cli.UserInputException;
 import org.thermotile.jobs.io.raster.GeoTiffWriter;
 import org.thermotile.jobs.io.raster.RasterGrid;
 import org.thermotile.model.constants.Physical;
+import org.thermotile.model.stats.GroupHourStats;
 import org.thermotile.model.tile.TileSimulation;
 
 /**
@@ -92,6 +93,7 @@ public final class CityJob {
     private static Summary execute(SparkSession spark, PreparedRun p, Path tmp, Options opt,
             PrintStream console, long t0) throws IOException {
         JavaSparkContext jsc = JavaSparkContext.fromSparkContext(spark.sparkContext());
+        SparkSessions.awaitExecutors(spark);
         Broadcast<TileJobSpec> spec = jsc.broadcast(p.spec());
         List<TileSpec> tiles = p.tiles();
         ProgressListener progress = null;
@@ -102,36 +104,91 @@ public final class CityJob {
             console.printf("simulating %d cells × %d hours in %d tiles%n", p.activeCells(),
                     p.spec().forcing().hours() - 1, tiles.size());
         }
+        // One partition per tile, in row-major tile order; the results stay on the executors.
         JavaRDD<TileOutput> results = jsc.parallelize(tiles, tiles.size())
                 .map(t -> TileTask.run(t, spec.value()))
                 .persist(StorageLevel.MEMORY_AND_DISK());
-        List<TileOutput> collected = new ArrayList<>(results.collect());
+        results.count();
         if (progress != null) {
             spark.sparkContext().removeSparkListener(progress);
         }
-        collected.sort(Comparator.comparingInt(o -> o.tile().index()));
         double simSeconds = (System.nanoTime() - t0) / 1e9;
+
+        // Small per-tile totals, merged on the driver in tile order (floating-point sums in a fixed order).
+        int tilesPerRow = (p.grid().width() + p.run().tiling().tileSize() - 1) / p.run().tiling().tileSize();
+        GroupHourStats materialHours = null;
+        GroupHourStats districtHours = null;
+        double maxClosure = 0;
+        long cellHours = 0;
+        for (int from = 0; from < tiles.size(); from += TOTALS_BATCH) {
+            for (TileTotals t : fetch(results, from, Math.min(tiles.size(), from + TOTALS_BATCH), TileTotals::of)) {
+                materialHours = merge(materialHours, t.materialHours());
+                districtHours = merge(districtHours, t.districtHours());
+                maxClosure = Math.max(maxClosure, t.maxClosureResidual());
+                cellHours += t.cellHours();
+            }
+        }
 
         Files.createDirectories(tmp.resolve("maps"));
         Files.createDirectories(tmp.resolve("tables"));
-        List<String> maps = MapOutputs.write(p, collected, tmp.resolve("maps"));
+        List<String> maps = MapOutputs.write(p, (layer, tileRow) -> fetch(results, tileRow * tilesPerRow,
+                Math.min(tiles.size(), (tileRow + 1) * tilesPerRow), o -> layer.of(o.result())), tmp.resolve("maps"));
         TableOutputs.writeCells(spark, p, results, tmp.resolve("tables/cells"));
-        TableOutputs.writeMaterialHours(spark, p, collected, tmp.resolve("tables/material_hours"));
+        TableOutputs.writeGroupHours(spark, p, materialHours, p.paletteLabels(), "material",
+                tmp.resolve("tables/material_hours"));
         if (!p.districtNames().isEmpty()) {
-            TableOutputs.writeDistrictHours(spark, p, collected, tmp.resolve("tables/district_hours"));
+            TableOutputs.writeGroupHours(spark, p, districtHours, p.districtNames(), "district",
+                    tmp.resolve("tables/district_hours"));
         }
         if (p.hourlyEpochSeconds().length > 0) {
             TableOutputs.writeCellHours(spark, p, results, tmp.resolve("tables/cell_hours"));
         }
         results.unpersist(false);
 
-        double maxClosure = collected.stream().mapToDouble(o -> o.result().maxClosureResidual).max().orElse(0);
-        long cellHours = collected.stream().mapToLong(o -> o.result().cellHours).sum();
         double wall = (System.nanoTime() - t0) / 1e9;
         Summary s = new Summary(tmp, p.activeCells(), cellHours, wall, cellHours / Math.max(simSeconds, 1e-9),
                 maxClosure, maps);
         Manifest.write(p, s, simSeconds, tmp.resolve("manifest.json"));
         return s;
+    }
+
+    /** Tiles whose totals are fetched in one Spark job (a tile's group-hour histograms are a few MB). */
+    static final int TOTALS_BATCH = 8;
+
+    /** What the driver keeps of a tile besides its maps: group-hour statistics and two totals. */
+    record TileTotals(GroupHourStats materialHours, GroupHourStats districtHours, double maxClosureResidual,
+            long cellHours) implements java.io.Serializable {
+        static TileTotals of(TileOutput o) {
+            return new TileTotals(o.result().materialHours, o.result().districtHours,
+                    o.result().maxClosureResidual, o.result().cellHours);
+        }
+    }
+
+    private static GroupHourStats merge(GroupHourStats all, GroupHourStats tile) {
+        if (tile == null) {
+            return all;
+        }
+        GroupHourStats a = all != null ? all : new GroupHourStats(tile.groups, tile.hours);
+        a.merge(tile);
+        return a;
+    }
+
+    /**
+     * {@code f} of the tiles {@code from … to−1} (one partition each), in tile order, in one Spark
+     * job: only what {@code f} returns travels to the driver.
+     */
+    static <R> List<R> fetch(JavaRDD<TileOutput> results, int from, int to,
+            org.apache.spark.api.java.function.Function<TileOutput, R> f) {
+        int[] ids = new int[to - from];
+        for (int i = 0; i < ids.length; i++) {
+            ids[i] = from + i;
+        }
+        List<R>[] parts = results.map(f).collectPartitions(ids);
+        List<R> out = new ArrayList<>(ids.length);
+        for (List<R> part : parts) {
+            out.addAll(part);
+        }
+        return out;
     }
 
     static void deleteQuietly(Path dir) {
