@@ -27,6 +27,7 @@ import org.thermotile.jobs.cli.UserInputException;
 import org.thermotile.jobs.io.raster.GeoTiffWriter;
 import org.thermotile.jobs.io.raster.RasterGrid;
 import org.thermotile.model.constants.Physical;
+import org.thermotile.model.stats.GroupHourStats;
 import org.thermotile.model.tile.TileSimulation;
 
 /**
@@ -96,6 +97,7 @@ public final class CityJob {
     private static Summary execute(SparkSession spark, PreparedRun p, Path tmp, Options opt,
             PrintStream console, long t0) throws IOException {
         JavaSparkContext jsc = JavaSparkContext.fromSparkContext(spark.sparkContext());
+        SparkSessions.awaitExecutors(spark);
         Broadcast<TileJobSpec> spec = jsc.broadcast(p.spec());
         ScenarioPlanner.Plan plan = p.plan();
         Broadcast<ScenarioPlanner.Plan> planB = jsc.broadcast(plan);
@@ -125,6 +127,8 @@ public final class CityJob {
                     variants.size() > 1 ? " × " + variants.size() + " variants (baseline and "
                             + (variants.size() - 1) + " scenarios)" : "");
         }
+        // One partition per (variant, tile), variants in plan order and tiles row-major inside:
+        // partition v·tiles + t. The results stay on the executors.
         JavaRDD<TileOutput> results = jsc.parallelize(work, Math.max(1, work.size()))
                 .map(w -> {
                     ScenarioPlanner.Plan pl = planB.value();
@@ -134,27 +138,47 @@ public final class CityJob {
                     return TileTask.run(w.tile(), sp, v, pl.units(), pl.roofs());
                 })
                 .persist(StorageLevel.MEMORY_AND_DISK());
-        List<TileOutput> collected = new ArrayList<>(results.collect());
+        results.count();
         if (progress != null) {
             spark.sparkContext().removeSparkListener(progress);
         }
         double simSeconds = (System.nanoTime() - t0) / 1e9;
 
+        // Small per-tile totals, merged on the driver in tile order (floating-point sums in a fixed
+        // order), and maps streamed from tile rows fetched on demand: the driver never holds a grid.
+        int nt = tiles.size();
+        int tilesPerRow = (p.grid().width() + p.run().tiling().tileSize() - 1) / p.run().tiling().tileSize();
         Files.createDirectories(tmp.resolve("tables"));
         List<String> maps = new ArrayList<>();
-        for (ScenarioVariant v : variants) {
-            List<TileOutput> mine = collected.stream().filter(o -> o.variant().equals(v.name()))
-                    .sorted(Comparator.comparingInt(o -> o.tile().index())).toList();
-            Path mapsDir = v.isBaseline() ? tmp.resolve("maps") : tmp.resolve("scenarios").resolve(v.name()).resolve("maps");
+        Map<String, GroupHourStats> materialHours = new java.util.LinkedHashMap<>();
+        Map<String, GroupHourStats> districtHours = new java.util.LinkedHashMap<>();
+        double maxClosure = 0;
+        long cellHours = 0;
+        for (int vi = 0; vi < variants.size(); vi++) {
+            ScenarioVariant v = variants.get(vi);
+            int base = vi * nt;
+            GroupHourStats mh = null;
+            GroupHourStats dh = null;
+            for (int from = 0; from < nt; from += TOTALS_BATCH) {
+                for (TileTotals t : fetch(results, base + from, base + Math.min(nt, from + TOTALS_BATCH), TileTotals::of)) {
+                    mh = merge(mh, t.materialHours());
+                    dh = merge(dh, t.districtHours());
+                    maxClosure = Math.max(maxClosure, t.maxClosureResidual());
+                    cellHours += t.cellHours();
+                }
+            }
+            materialHours.put(v.name(), mh);
+            districtHours.put(v.name(), dh);
+            Path mapsDir = Partitions.mapsDir(tmp, v.name());
             Files.createDirectories(mapsDir);
-            String prefix = tmp.relativize(mapsDir).toString().replace('\\', '/') + "/";
-            MapOutputs.write(p, mine, mapsDir).forEach(m -> maps.add(prefix + m.substring("maps/".length())));
+            MapOutputs.write(p, (layer, tileRow) -> fetch(results, base + tileRow * tilesPerRow,
+                    base + Math.min(nt, (tileRow + 1) * tilesPerRow), o -> layer.of(o.result())), mapsDir);
         }
         List<String> variantNames = variants.stream().map(ScenarioVariant::name).toList();
         TableOutputs.writeCells(spark, p, variantNames, results, tmp.resolve("tables/cells"));
-        TableOutputs.writeMaterialHours(spark, p, variants, collected, tmp.resolve("tables/material_hours"));
+        TableOutputs.writeMaterialHours(spark, p, variants, materialHours, tmp.resolve("tables/material_hours"));
         if (!p.districtNames().isEmpty()) {
-            TableOutputs.writeDistrictHours(spark, p, variantNames, collected, tmp.resolve("tables/district_hours"));
+            TableOutputs.writeDistrictHours(spark, p, variantNames, districtHours, tmp.resolve("tables/district_hours"));
         }
         if (p.hourlyEpochSeconds().length > 0) {
             TableOutputs.writeCellHours(spark, p, results, tmp.resolve("tables/cell_hours"));
@@ -173,8 +197,6 @@ public final class CityJob {
             }
         }
 
-        double maxClosure = collected.stream().mapToDouble(o -> o.result().maxClosureResidual).max().orElse(0);
-        long cellHours = collected.stream().mapToLong(o -> o.result().cellHours).sum();
         double wall = (System.nanoTime() - t0) / 1e9;
         Summary s = new Summary(tmp, p.activeCells(), cellHours, wall, cellHours / Math.max(simSeconds, 1e-9),
                 maxClosure, maps);
@@ -193,6 +215,45 @@ public final class CityJob {
 
     /** One task: a variant (index into the plan) and a tile. */
     record Work(String variant, TileSpec tile) implements java.io.Serializable {
+    }
+
+    /** Tiles whose totals are fetched in one Spark job (a tile's group-hour histograms are a few MB). */
+    static final int TOTALS_BATCH = 8;
+
+    /** What the driver keeps of a tile besides its maps: group-hour statistics and two totals. */
+    record TileTotals(GroupHourStats materialHours, GroupHourStats districtHours, double maxClosureResidual,
+            long cellHours) implements java.io.Serializable {
+        static TileTotals of(TileOutput o) {
+            return new TileTotals(o.result().materialHours, o.result().districtHours,
+                    o.result().maxClosureResidual, o.result().cellHours);
+        }
+    }
+
+    private static GroupHourStats merge(GroupHourStats all, GroupHourStats tile) {
+        if (tile == null) {
+            return all;
+        }
+        GroupHourStats a = all != null ? all : new GroupHourStats(tile.groups, tile.hours);
+        a.merge(tile);
+        return a;
+    }
+
+    /**
+     * {@code f} of the tiles {@code from … to−1} (one partition each), in tile order, in one Spark
+     * job: only what {@code f} returns travels to the driver.
+     */
+    static <R> List<R> fetch(JavaRDD<TileOutput> results, int from, int to,
+            org.apache.spark.api.java.function.Function<TileOutput, R> f) {
+        int[] ids = new int[to - from];
+        for (int i = 0; i < ids.length; i++) {
+            ids[i] = from + i;
+        }
+        List<R>[] parts = results.map(f).collectPartitions(ids);
+        List<R> out = new ArrayList<>(ids.length);
+        for (List<R> part : parts) {
+            out.addAll(part);
+        }
+        return out;
     }
 
     static void deleteQuietly(Path dir) {

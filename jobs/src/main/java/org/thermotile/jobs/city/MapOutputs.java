@@ -3,43 +3,89 @@ package org.thermotile.jobs.city;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
-import java.util.function.Function;
+import java.util.TreeMap;
 import org.thermotile.jobs.config.RunFile;
 import org.thermotile.jobs.io.raster.GeoTiffWriter;
 import org.thermotile.jobs.io.raster.RasterGrid;
 import org.thermotile.model.tile.TileSimulation;
 
-/** Writes the statistic maps: one float32 GeoTIFF per statistic, on exactly the input's grid. */
+/**
+ * Writes the statistic maps: one float32 GeoTIFF per statistic, on exactly the input's grid.
+ *
+ * <p>The driver never holds a whole grid: the GeoTIFF writer asks for its blocks in row-major
+ * order ({@link GeoTiffWriter#writeFloatBlocks}), and the blocks are cut from the tile results
+ * of the one or few tile rows they overlap, fetched from the executors a tile row at a time
+ * ({@link TileSource}) and dropped once the writer has moved below them. Driver memory is
+ * therefore about grid width × max(tile size, 256) × bands × 4 bytes per map being written.
+ */
 final class MapOutputs {
     private MapOutputs() {}
 
-    /** File name (without .tif) and the tile array for each map kind. */
-    static Function<TileSimulation.Result, double[]> field(RunFile.MapKind kind) {
-        return switch (kind.key()) {
-            case "peak" -> r -> r.peakC;
-            case "mean" -> r -> r.meanC;
-            case "night_min" -> r -> r.nightMinC;
-            case "peak_hour" -> r -> r.peakHour;
-            case "degree_hours" -> r -> r.degreeHoursAbove;
-            case "hours_above" -> r -> r.hoursAbove;
-            default -> throw new IllegalArgumentException("no map for " + kind.key());
+    /**
+     * Which values of a tile a map takes, as float32 with no-data (no material) as
+     * {@link CityJob#MAP_NODATA}: a statistic map one band, an hourly stack one band per hour.
+     * Serialisable: it runs on the executors, so only the map's values cross the network.
+     *
+     * @param statistic   a {@link RunFile.MapKind} key, or null for an hourly stack
+     * @param hourlyBands indices into {@link TileSimulation.Result#hourlyC} (hourly stacks)
+     */
+    record Layer(String statistic, int[] hourlyBands) implements java.io.Serializable {
+        int bands() {
+            return statistic != null ? 1 : hourlyBands.length;
+        }
+
+        /** The tile's values: [band][row-major cell of the tile]. */
+        float[][] of(TileSimulation.Result r) {
+            if (statistic != null) {
+                return new float[][] {toMapValues(field(statistic, r))};
+            }
+            float[][] out = new float[hourlyBands.length][];
+            for (int b = 0; b < out.length; b++) {
+                out[b] = toMapValues(r.hourlyC[hourlyBands[b]]);
+            }
+            return out;
+        }
+    }
+
+    /** Tile values fetched a tile row at a time. */
+    @FunctionalInterface
+    interface TileSource {
+        /** For each tile of tile row {@code tileRow}, left to right, {@code layer.of(result)}. */
+        List<float[][]> tileRow(Layer layer, int tileRow);
+    }
+
+    /** The tile array of a statistic. */
+    static double[] field(String key, TileSimulation.Result r) {
+        return switch (key) {
+            case "peak" -> r.peakC;
+            case "mean" -> r.meanC;
+            case "night_min" -> r.nightMinC;
+            case "peak_hour" -> r.peakHour;
+            case "degree_hours" -> r.degreeHoursAbove;
+            case "hours_above" -> r.hoursAbove;
+            case "sky_view_factor" -> r.skyViewFactor;
+            case "shaded_hours" -> r.shadedHours;
+            default -> throw new IllegalArgumentException("no map for " + key);
         };
     }
 
-    static List<String> write(PreparedRun p, List<TileOutput> tiles, Path mapsDir) {
+    /** Writes every map the run asks for; returns their paths relative to the output folder. */
+    static List<String> write(PreparedRun p, TileSource tiles, Path mapsDir) {
         RasterGrid grid = p.grid();
+        int tileSize = p.run().tiling().tileSize();
         List<String> written = new ArrayList<>();
         for (RunFile.MapKind kind : p.run().outputs().maps()) {
-            float[] full = assemble(grid, tiles, field(kind));
             String name = kind.key() + ".tif";
-            GeoTiffWriter.writeFloat(mapsDir.resolve(name), grid, full, CityJob.MAP_NODATA);
+            Layer layer = new Layer(kind.key(), null);
+            GeoTiffWriter.writeFloatBlocks(mapsDir.resolve(name), grid, 1, CityJob.MAP_NODATA,
+                    new Strips(grid, tileSize, layer, tiles));
             written.add("maps/" + name);
         }
         if (p.spec().geometry() != null) {
             // Urban geometry: sky view factor (a fraction) and sun hours lost to cast shadows.
             for (String name : List.of("sky_view_factor", "shaded_hours")) {
-                float[] full = assemble(grid, tiles, name.equals("sky_view_factor") ? r -> r.skyViewFactor : r -> r.shadedHours);
-                GeoTiffWriter.writeFloat(mapsDir.resolve(name + ".tif"), grid, full, CityJob.MAP_NODATA);
+                GeoTiffWriter.writeFloatBlocks(mapsDir.resolve(name + ".tif"), grid, 1, CityJob.MAP_NODATA,
+                        new Strips(grid, tileSize, new Layer(name, null), tiles));
                 written.add("maps/" + name + ".tif");
             }
         }
@@ -53,42 +99,79 @@ final class MapOutputs {
                 byDay.computeIfAbsent(d, k -> new ArrayList<>()).add(i);
             }
             for (var e : byDay.entrySet()) {
-                List<Integer> idx = e.getValue();
-                float[][] bands = new float[idx.size()][];
-                for (int b = 0; b < idx.size(); b++) {
-                    int band = idx.get(b);
-                    bands[b] = assemble(grid, tiles, r -> toDoubles(r.hourlyC[band]));
-                }
+                Layer layer = new Layer(null, e.getValue().stream().mapToInt(Integer::intValue).toArray());
                 String name = "hourly_" + e.getKey() + ".tif";
-                GeoTiffWriter.writeFloatStack(mapsDir.resolve(name), grid, bands, CityJob.MAP_NODATA);
+                GeoTiffWriter.writeFloatBlocks(mapsDir.resolve(name), grid, layer.bands(), CityJob.MAP_NODATA,
+                        new Strips(grid, tileSize, layer, tiles));
                 written.add("maps/" + name);
             }
         }
         return written;
     }
 
-    /** The whole grid of one field from the tiles, NaN (no material) as the map's no-data value. */
-    static double[] toDoubles(float[] a) {
-        double[] d = new double[a.length];
+    /** A tile's values as float32, NaN (no material) as the map's no-data value. */
+    static float[] toMapValues(double[] a) {
+        float[] f = new float[a.length];
         for (int i = 0; i < a.length; i++) {
-            d[i] = a[i];
+            double v = a[i];
+            f[i] = Double.isNaN(v) ? CityJob.MAP_NODATA : (float) v;
         }
-        return d;
+        return f;
     }
 
-    static float[] assemble(RasterGrid grid, List<TileOutput> tiles, Function<TileSimulation.Result, double[]> f) {
-        float[] full = new float[grid.width() * grid.height()];
-        for (TileOutput o : tiles) {
-            TileSpec t = o.tile();
-            double[] src = f.apply(o.result());
-            for (int r = 0; r < t.height(); r++) {
-                int dst = (t.row0() + r) * grid.width() + t.col0();
-                for (int c = 0; c < t.width(); c++) {
-                    double v = src[r * t.width() + c];
-                    full[dst + c] = Double.isNaN(v) ? CityJob.MAP_NODATA : (float) v;
+    /** As {@link #toMapValues(double[])} for float values. */
+    static float[] toMapValues(float[] a) {
+        float[] f = new float[a.length];
+        for (int i = 0; i < a.length; i++) {
+            float v = a[i];
+            f[i] = Float.isNaN(v) ? CityJob.MAP_NODATA : v;
+        }
+        return f;
+    }
+
+    /**
+     * Cuts the writer's blocks from the tile rows they overlap. Blocks come in row-major order,
+     * so tile rows above the current block are dropped; a block asked for again after that (not
+     * expected) is served by fetching its tile rows again.
+     */
+    static final class Strips implements GeoTiffWriter.FloatBlockSource {
+        private final RasterGrid grid;
+        private final int tileSize;
+        private final Layer layer;
+        private final TileSource source;
+        private final TreeMap<Integer, List<float[][]>> loaded = new TreeMap<>();
+
+        Strips(RasterGrid grid, int tileSize, Layer layer, TileSource source) {
+            this.grid = grid;
+            this.tileSize = tileSize;
+            this.layer = layer;
+            this.source = source;
+        }
+
+        @Override
+        public void fill(int band, int col0, int row0, int width, int height, float[] out) {
+            int first = row0 / tileSize;
+            int last = (row0 + height - 1) / tileSize;
+            loaded.headMap(first).clear();
+            for (int tr = first; tr <= last; tr++) {
+                if (!loaded.containsKey(tr)) {
+                    loaded.put(tr, source.tileRow(layer, tr));
+                }
+            }
+            for (int r = 0; r < height; r++) {
+                int row = row0 + r;
+                int tr = row / tileSize;
+                List<float[][]> tiles = loaded.get(tr);
+                int rowInTile = row - tr * tileSize;
+                for (int c = col0; c < col0 + width; ) {
+                    int tc = c / tileSize;
+                    int tileWidth = Math.min(tileSize, grid.width() - tc * tileSize);
+                    int n = Math.min(col0 + width - c, (tc + 1) * tileSize - c);
+                    System.arraycopy(tiles.get(tc)[band], rowInTile * tileWidth + (c - tc * tileSize),
+                            out, r * width + (c - col0), n);
+                    c += n;
                 }
             }
         }
-        return full;
     }
 }

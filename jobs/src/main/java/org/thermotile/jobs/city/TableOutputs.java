@@ -103,10 +103,10 @@ final class TableOutputs {
 
     /** Per-material hourly mean and 10–90 % band of surface temperature (diurnal curves). */
     static void writeMaterialHours(SparkSession spark, PreparedRun p, List<ScenarioVariant> variants,
-            List<TileOutput> tiles, Path dir) {
+            java.util.Map<String, GroupHourStats> stats, Path dir) {
         List<Row> rows = new ArrayList<>();
         for (ScenarioVariant v : variants) {
-            GroupHourStats all = merged(tiles, v.name(), o -> o.result().materialHours);
+            GroupHourStats all = stats.get(v.name());
             // Entries sharing a label (several changed copies of one material) are one curve.
             List<String> labels = labels(p, v);
             List<String> distinct = labels.stream().distinct().toList();
@@ -116,28 +116,12 @@ final class TableOutputs {
         writeGroupTable(spark, rows, "material", dir);
     }
 
-    static GroupHourStats merged(List<TileOutput> tiles, String variant,
-            java.util.function.Function<TileOutput, GroupHourStats> f) {
-        GroupHourStats all = null;
-        for (TileOutput o : tiles) {
-            if (!o.variant().equals(variant)) {
-                continue;
-            }
-            GroupHourStats g = f.apply(o);
-            if (all == null) {
-                all = new GroupHourStats(g.groups, g.hours);
-            }
-            all.merge(g);
-        }
-        return all;
-    }
-
     /** Per-district hourly mean and 10–90 % band of surface temperature. */
     static void writeDistrictHours(SparkSession spark, PreparedRun p, List<String> variants,
-            List<TileOutput> tiles, Path dir) {
+            java.util.Map<String, GroupHourStats> stats, Path dir) {
         List<Row> rows = new ArrayList<>();
         for (String v : variants) {
-            rows.addAll(groupHourRows(p, v, merged(tiles, v, o -> o.result().districtHours), p.districtNames()));
+            rows.addAll(groupHourRows(p, v, stats.get(v), p.districtNames()));
         }
         writeGroupTable(spark, rows, "district", dir);
     }
@@ -210,7 +194,7 @@ final class TableOutputs {
     /**
      * part-00003-&lt;uuid&gt;-c000.snappy.parquet → part-00000.snappy.parquet, numbered in task
      * order within each folder (so a partition's names do not depend on which other partitions
-     * the same job wrote); checksum files removed.
+     * the same job wrote), footer in canonical form ({@link ParquetFooter}); checksum files removed.
      */
     static void renameParts(Path dir) {
         try (Stream<Path> s = Files.list(dir)) {
@@ -234,7 +218,8 @@ final class TableOutputs {
                 Matcher m = PART.matcher(parts.get(i).getFileName().toString());
                 m.matches();
                 String ext = m.group(2) == null ? "" : m.group(2);
-                Files.move(parts.get(i), dir.resolve(String.format("part-%05d%s.parquet", i, ext)));
+                Path named = Files.move(parts.get(i), dir.resolve(String.format("part-%05d%s.parquet", i, ext)));
+                ParquetFooter.canonicalise(named);
             }
         } catch (IOException e) {
             throw new java.io.UncheckedIOException(e);
