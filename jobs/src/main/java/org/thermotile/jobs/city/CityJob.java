@@ -24,6 +24,7 @@ import org.apache.spark.sql.types.DataTypes;
 import org.apache.spark.sql.types.StructType;
 import org.apache.spark.storage.StorageLevel;
 import org.thermotile.jobs.cli.UserInputException;
+import org.thermotile.jobs.io.Folders;
 import org.thermotile.jobs.io.raster.GeoTiffWriter;
 import org.thermotile.jobs.io.raster.RasterGrid;
 import org.thermotile.model.constants.Physical;
@@ -257,26 +258,10 @@ public final class CityJob {
     }
 
     static void deleteQuietly(Path dir) {
-        try {
-            deleteTree(dir);
-        } catch (IOException ignored) {
-            // best effort: the failure being reported matters more
-        }
-    }
-
-    /** Deletes a folder and everything in it (for commands that rewrite a part of a run folder). */
-    public static void deleteTreePublic(Path dir) throws IOException {
-        deleteTree(dir);
+        Folders.deleteQuietly(dir);
     }
 
     static void deleteTree(Path dir) throws IOException {
-        if (!Files.exists(dir)) {
-            return;
-        }
-        try (Stream<Path> s = Files.walk(dir)) {
-            for (Path q : s.sorted(Comparator.reverseOrder()).toList()) {
-                Files.delete(q);
-            }
-        }
+        Folders.deleteTree(dir);
     }
 }

@@ -21,7 +21,7 @@ final class CompareCommand implements Callable<Integer> {
     public Integer call() throws Exception {
         Path cmp = runDir.resolve("comparison");
         if (java.nio.file.Files.exists(cmp)) {
-            org.thermotile.jobs.city.CityJob.deleteTreePublic(cmp);
+            org.thermotile.jobs.io.Folders.deleteTree(cmp);
         }
         try (SparkSession spark = SparkSessions.get(null, 0)) {
             Comparison.write(spark, runDir);

@@ -535,21 +535,10 @@ public final class Hotspots {
     }
 
     static void deleteQuietly(Path dir) {
-        try {
-            deleteTree(dir);
-        } catch (IOException ignored) {
-            // the failure being reported matters more
-        }
+        org.thermotile.jobs.io.Folders.deleteQuietly(dir);
     }
 
     static void deleteTree(Path dir) throws IOException {
-        if (!Files.exists(dir)) {
-            return;
-        }
-        try (Stream<Path> s = Files.walk(dir)) {
-            for (Path q : s.sorted(Comparator.reverseOrder()).toList()) {
-                Files.delete(q);
-            }
-        }
+        org.thermotile.jobs.io.Folders.deleteTree(dir);
     }
 }

@@ -209,8 +209,8 @@ class ScenarioTest {
     void resumeRecomputesOnlyTheMissingPartitionAndGivesTheSameBytes() throws Exception {
         Path copy = dir.resolve("resumed");
         copyTree(out, copy);
-        CityJob.deleteTreePublic(copy.resolve("scenarios/partial"));
-        CityJob.deleteTreePublic(copy.resolve("tables/cells/scenario=partial"));
+        org.thermotile.jobs.io.Folders.deleteTree(copy.resolve("scenarios/partial"));
+        org.thermotile.jobs.io.Folders.deleteTree(copy.resolve("tables/cells/scenario=partial"));
         Path rf = dir.resolve("in-s256/run.yaml");
         CityJob.run(spark, RunPreparer.prepare(RunFileReader.read(rf)),
                 new CityJob.Options(copy, null, false, true, 0, true), new PrintStream(new ByteArrayOutputStream()));
