@@ -34,7 +34,8 @@ import org.thermotile.jobs.city.SparkSessions;
 import org.thermotile.jobs.config.RunFileReader;
 
 /**
- * The demo city (data-samples/riverside, the whole week) on a real Spark standalone cluster of
+ * The demo city (data-samples/riverside: its inputs and geometry, one counted day after one
+ * spin-up day, without its programmes and hotspots, to keep the test short) on a real Spark standalone cluster of
  * one Master and two Workers (one core each) on 127.0.0.1, submitted with spark-submit
  * (org.apache.spark.deploy.SparkSubmit in a child JVM, client mode, the application jar of
  * thermotile's classes), against the same run embedded in this JVM: every output file
@@ -43,7 +44,22 @@ import org.thermotile.jobs.config.RunFileReader;
  * outputs are still identical and the tables hold each row once.
  */
 class ClusterRunTest {
-    static final Path DEMO = Path.of("..", "data-samples", "riverside", "run.yaml").toAbsolutePath().normalize();
+    static final Path DEMO_DIR = Path.of("..", "data-samples", "riverside").toAbsolutePath().normalize();
+    static Path DEMO;
+
+    /** The demo's run file cut to one counted day, without scenarios, sweep and hotspots; inputs absolute. */
+    static Path reducedDemo(Path dir) throws IOException {
+        String y = Files.readString(DEMO_DIR.resolve("run.yaml"));
+        y = y.substring(0, y.indexOf("\nscenarios:")) + "\n";
+        y = y.replaceAll("(?m)^  start: .*$", "  start: 2026-07-16").replaceAll("(?m)^  end: .*$", "  end: 2026-07-16")
+                .replaceAll("(?m)^  spin_up_days: .*$", "  spin_up_days: 1");
+        for (String f : List.of("landcover.tif", "heights.tif", "districts.geojson", "classes.yaml", "weather.csv")) {
+            y = y.replace(": " + f, ": " + DEMO_DIR.resolve(f));
+        }
+        Path rf = dir.resolve("run.yaml");
+        Files.writeString(rf, y);
+        return rf;
+    }
     static final Duration RUN_TIMEOUT = Duration.ofMinutes(4);
 
     @TempDir
@@ -55,6 +71,7 @@ class ClusterRunTest {
     @BeforeAll
     static void embeddedRunAndCluster() throws Exception {
         embedded = dir.resolve("embedded");
+        DEMO = reducedDemo(dir);
         long t0 = System.nanoTime();
         SparkSession s = SparkSessions.get(null, 2);
         try {
@@ -63,6 +80,7 @@ class ClusterRunTest {
         } finally {
             s.stop();
         }
+        org.thermotile.jobs.report.RunReport.write(embedded); // the run command writes it too
         System.out.printf("embedded run (local[2]): %.1f s%n", (System.nanoTime() - t0) / 1e9);
         t0 = System.nanoTime();
         cluster = StandaloneCluster.start(dir.resolve("cluster"), 2, 1, "2g");
@@ -176,11 +194,14 @@ class ClusterRunTest {
                 + StandaloneCluster.tail(driverLog, 60));
     }
 
-    /** Same files; every byte equal but the manifest's timing fields. */
+    /** Same files; every byte equal but the manifest's timing fields (and the report, which shows them). */
     static void assertSameOutputs(Path a, Path b) throws Exception {
         List<String> files = tree(a);
         assertEquals(files, tree(b));
         for (String f : files) {
+            if (f.equals("report.html")) {
+                continue;
+            }
             if (f.equals("manifest.json")) {
                 assertEquals(withoutTiming(a.resolve(f)), withoutTiming(b.resolve(f)));
             } else {
@@ -192,13 +213,13 @@ class ClusterRunTest {
     /** Each key once in every table, read by DuckDB (an independent Parquet reader). */
     static void assertNoDuplicateRows(Path out) throws Exception {
         String[][] tables = {
-            {"cells", "col, row"}, {"cell_hours", "col, row, time"},
-            {"material_hours", "material, time"}, {"district_hours", "district, time"}};
+            {"cells", "scenario, col, row"}, {"cell_hours", "scenario, col, row, time"},
+            {"material_hours", "scenario, material, time"}, {"district_hours", "scenario, district, time"}};
         try (Connection c = DriverManager.getConnection("jdbc:duckdb:"); Statement st = c.createStatement()) {
             for (String[] t : tables) {
-                String files = out.resolve("tables").resolve(t[0]).resolve("*.parquet").toString();
+                String files = out.resolve("tables").resolve(t[0]).resolve("*").resolve("*.parquet").toString();
                 try (ResultSet r = st.executeQuery("select count(*), count(distinct (" + t[1]
-                        + ")) from read_parquet('" + files + "')")) {
+                        + ")) from read_parquet('" + files + "', hive_partitioning = true)")) {
                     assertTrue(r.next());
                     assertTrue(r.getLong(1) > 0, t[0] + " has rows");
                     assertEquals(r.getLong(1), r.getLong(2), t[0] + ": rows vs distinct (" + t[1] + ")");
