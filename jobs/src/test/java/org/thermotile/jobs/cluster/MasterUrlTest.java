@@ -22,12 +22,14 @@ import org.thermotile.jobs.config.RunFileReader;
 class MasterUrlTest {
     @TempDir
     Path dir;
+    @TempDir
+    Path inputs;
 
     @Test
     void unreachableMasterIsAClearErrorNotAHang() throws Exception {
         int port = StandaloneCluster.freePort();                  // nothing listens there
         String url = "spark://127.0.0.1:" + port;
-        PreparedRun p = RunPreparer.prepare(RunFileReader.read(ClusterRunTest.DEMO));
+        PreparedRun p = RunPreparer.prepare(RunFileReader.read(ClusterRunTest.reducedDemo(inputs)));
         Path out = dir.resolve("out");
         // The bound is the point of the check, not speed: Spark alone retries for about a minute.
         UserInputException e = assertTimeoutPreemptively(Duration.ofSeconds(30), () -> assertThrows(
