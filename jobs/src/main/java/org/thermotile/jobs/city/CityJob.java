@@ -94,6 +94,9 @@ public final class CityJob {
             PrintStream console, long t0) throws IOException {
         JavaSparkContext jsc = JavaSparkContext.fromSparkContext(spark.sparkContext());
         SparkSessions.awaitExecutors(spark);
+        if (InputStaging.isRemote(p.spec().landCover())) {
+            jsc.addFile(p.spec().landCover());           // each executor fetches it once from the URI
+        }
         Broadcast<TileJobSpec> spec = jsc.broadcast(p.spec());
         List<TileSpec> tiles = p.tiles();
         ProgressListener progress = null;

@@ -55,7 +55,7 @@ public final class RunPreparer {
         Map<String, String> inputs = new LinkedHashMap<>();
         RunFile.Inputs in = run.inputs();
         Path landCover = localPath(in.landCover(), "inputs.land_cover");
-        inputs.put("land_cover", landCover.toString());
+        inputs.put("land_cover", location(in.landCover(), landCover));
 
         RasterGrid grid;
         Double noData;
@@ -95,7 +95,7 @@ public final class RunPreparer {
         }
         if (in.heights() != null) {
             Path heights = localPath(in.heights(), "inputs.heights");
-            inputs.put("heights", heights.toString());
+            inputs.put("heights", location(in.heights(), heights));
             try (GeoTiffReader h = GeoTiffReader.openSingleBand(heights)) {
                 grid.differenceFrom(h.grid()).ifPresent(d -> {
                     throw new UserInputException(heights + ": its grid differs from the land cover's ("
@@ -108,17 +108,18 @@ public final class RunPreparer {
         if (in.districts() != null) {
             Path d = localPath(in.districts(), "inputs.districts");
             districts = Districts.read(d, grid);
-            inputs.put("districts", d.toString());
+            inputs.put("districts", location(in.districts(), d));
         }
 
         // Materials and classes.
         Map<String, Material> known = new LinkedHashMap<>(MaterialLibrary.byId());
         if (in.materials() != null) {
             Path mf = localPath(in.materials(), "inputs.materials");
-            inputs.put("materials", mf.toString());
+            inputs.put("materials", location(in.materials(), mf));
             known.putAll(MaterialsFile.mergeWithLibrary(MaterialsFile.read(mf)));
         }
-        ClassTable table = ClassTableReader.resolve(in.classes(), known.keySet());
+        ClassTable table = ClassTableReader.resolve(InputStaging.isRemote(in.classes())
+                ? localPath(in.classes(), "inputs.classes").toString() : in.classes(), known.keySet());
         if (!in.classesIsBuiltIn()) {
             inputs.put("classes", in.classes());
         }
@@ -164,7 +165,7 @@ public final class RunPreparer {
                     offset.getTotalSeconds(), syn.tMinC(), syn.tMaxC(), syn.relHumidityPct() / 100.0, syn.windMs()));
         } else {
             Path wf = localPath(run.weather().file(), "weather.file");
-            inputs.put("weather", wf.toString());
+            inputs.put("weather", location(run.weather().file(), wf));
             WeatherRead read;
             try {
                 read = WeatherCsv.read(wf, run.weather().fillGapsMaxHours() > 0
@@ -219,7 +220,7 @@ public final class RunPreparer {
         TileSimulation.Settings settings = new TileSimulation.Settings(run.physics().timestepMinutes(),
                 convection, deepK, firstSample, run.outputs().thresholdK(),
                 hourlyIdx.stream().mapToInt(Integer::intValue).toArray());
-        TileJobSpec spec = new TileJobSpec(landCover.toString(), grid, palette.toArray(new Material[0]), lut,
+        TileJobSpec spec = new TileJobSpec(location(in.landCover(), landCover), grid, palette.toArray(new Material[0]), lut,
                 districts == null ? List.of() : districts.geometries(), used, settings);
         List<String> districtNames = districts == null ? List.of()
                 : districts.districts().stream().map(Districts.District::name).toList();
@@ -239,7 +240,11 @@ public final class RunPreparer {
                 Arrays.copyOf(f.sunZenithDeg, hours), Arrays.copyOf(f.sunAzimuthDeg, hours));
     }
 
-    /** A local path from a run-file location (file: URIs accepted). */
+    /**
+     * A local path from a run-file location: a path, a {@code file:} URI, or a Hadoop URI
+     * ({@code hdfs://}, {@code s3a://}, …) whose file is copied to a local folder first
+     * ({@link InputStaging}).
+     */
     static Path localPath(String location, String key) {
         if (location == null) {
             throw new UserInputException("run file: " + key + " is missing");
@@ -247,11 +252,15 @@ public final class RunPreparer {
         if (location.startsWith("file:")) {
             return Path.of(java.net.URI.create(location));
         }
-        if (location.matches("^[a-z][a-z0-9+.-]*://.*")) {
-            throw new UserInputException(key + ": '" + location + "' is not a local file; this version "
-                    + "reads local files and file:// URIs only");
+        if (InputStaging.isRemote(location)) {
+            return InputStaging.local(location, key);
         }
         return Path.of(location);
+    }
+
+    /** What the manifest and the tasks see: the URI of a remote input, else the local path. */
+    static String location(String written, Path local) {
+        return InputStaging.isRemote(written) ? written : local.toString();
     }
 
     /** Geographic latitude and longitude [°] of the grid's centre. */
