@@ -56,7 +56,7 @@ public final class CityJob {
     /** Runs on {@code session} if not null (left running), else on a session of its own. */
     public static Summary run(SparkSession session, PreparedRun prepared, Options opt, PrintStream console) {
         long t0 = System.nanoTime();
-        Path out = opt.outDir().toAbsolutePath().normalize();
+        Path out = outputFolder(opt.outDir());
         if (Files.exists(out) && !opt.replace()) {
             throw new UserInputException(out + " already exists. Fix: choose another --out folder, "
                     + "or add --replace to overwrite it");
@@ -192,6 +192,26 @@ public final class CityJob {
             out.addAll(part);
         }
         return out;
+    }
+
+    /**
+     * The output folder: a path, or a {@code file:} URI (which a command line's path conversion
+     * turns into "file:/…"). Other URIs are refused: the maps are written through a local,
+     * seekable file and the Parquet footers are made canonical in place, neither of which a
+     * Hadoop file system such as HDFS (write-once files) allows.
+     */
+    static Path outputFolder(Path given) {
+        String s = given.toString();
+        if (s.startsWith("file:")) {
+            return Path.of(java.net.URI.create(s)).toAbsolutePath().normalize();
+        }
+        if (s.matches("^[A-Za-z][A-Za-z0-9+.-]+:/.*")) {
+            throw new UserInputException("--out " + s.replaceFirst(":/+", "://") + ": outputs are written to a "
+                    + "local folder or a file system every Spark host mounts (NFS, a cluster file system, a "
+                    + "Kubernetes volume), not to " + s.substring(0, s.indexOf(':')) + ":// URIs. Fix: write to such "
+                    + "a folder, then copy the finished folder, e.g. with hadoop fs -put");
+        }
+        return given.toAbsolutePath().normalize();
     }
 
     static void deleteQuietly(Path dir) {

@@ -30,8 +30,9 @@ import org.thermotile.jobs.config.RunFileReader;
  * Inputs on HDFS: an HDFS MiniDFSCluster (one name node, one data node) in this JVM beside Spark
  * 4.2, the demo's inputs copied to it, and a one-day copy of the demo run file naming them as
  * {@code hdfs://} URIs. The run (embedded Spark; the land cover reaches the tasks through Spark's
- * file distribution) gives the same bytes as the same run file with local paths, and its
- * manifest names the URIs with the same SHA-256 as the local files.
+ * file distribution) gives the same bytes as the same run file with {@code file://} URIs for
+ * the inputs and the output folder, and its manifest names the URIs with the same SHA-256 as the
+ * local files. Outputs on {@code hdfs://} are refused with a message (see CityJob.outputFolder).
  */
 class HdfsInputTest {
     static final Path DEMO_DIR = ClusterRunTest.DEMO.getParent();
@@ -79,8 +80,9 @@ class HdfsInputTest {
 
     @Test
     void hdfsInputsGiveTheBytesOfLocalInputs() throws Exception {
-        Path local = run(oneDayRunFile(dir.resolve("local.yaml"), DEMO_DIR + "/"), "local");
-        Path remote = run(oneDayRunFile(dir.resolve("hdfs.yaml"), root), "hdfs");
+        Path local = dir.resolve("out-local");
+        run(oneDayRunFile(dir.resolve("local.yaml"), DEMO_DIR.toUri().toString()), Path.of(local.toUri().toString()));
+        Path remote = run(oneDayRunFile(dir.resolve("hdfs.yaml"), root), dir.resolve("out-hdfs"));
         List<String> files = ClusterRunTest.tree(local);
         assertEquals(files, ClusterRunTest.tree(remote));
         for (String f : files) {
@@ -115,8 +117,18 @@ class HdfsInputTest {
                 + "landcover.tif not found. Fix:"), e.getMessage());
     }
 
-    static Path run(Path runFile, String name) {
-        Path out = dir.resolve("out-" + name);
+    @Test
+    void outputOnHdfsIsRefusedWithAFix() throws Exception {
+        Path rf = oneDayRunFile(dir.resolve("out-hdfs.yaml"), root);
+        UserInputException e = org.junit.jupiter.api.Assertions.assertThrows(UserInputException.class,
+                () -> run(rf, Path.of(root + "runs/x")));
+        assertTrue(e.getMessage().startsWith("--out " + root + "runs/x: outputs are written to a local folder"),
+                e.getMessage());
+        assertTrue(e.getMessage().contains("Fix: "), e.getMessage());
+    }
+
+    /** Runs on a session of its own; {@code out} as a command line's path conversion gives it. */
+    static Path run(Path runFile, Path out) {
         SparkSession s = SparkSessions.get(null, 2);
         try {
             CityJob.run(s, RunPreparer.prepare(RunFileReader.read(runFile)), new CityJob.Options(out, null, false, true, 2),
