@@ -61,7 +61,7 @@ public final class CityJob {
     /** Runs on {@code session} if not null (left running), else on a session of its own. */
     public static Summary run(SparkSession session, PreparedRun prepared, Options opt, PrintStream console) {
         long t0 = System.nanoTime();
-        Path out = opt.outDir().toAbsolutePath().normalize();
+        Path out = outputFolder(opt.outDir());
         if (Files.exists(out) && !opt.replace() && !opt.resume()) {
             throw new UserInputException(out + " already exists. Fix: choose another --out folder, "
                     + "add --replace to overwrite it, or --resume to keep its complete scenario partitions");
@@ -99,12 +99,18 @@ public final class CityJob {
             PrintStream console, long t0) throws IOException {
         JavaSparkContext jsc = JavaSparkContext.fromSparkContext(spark.sparkContext());
         SparkSessions.awaitExecutors(spark);
+        if (p.spec().heights() != null && InputStaging.isRemote(p.spec().heights())) {
+            jsc.addFile(p.spec().heights());             // geometry reads heights windows on the executors
+        }
+        if (InputStaging.isRemote(p.spec().landCover())) {
+            jsc.addFile(p.spec().landCover());           // each executor fetches it once from the URI
+        }
         Broadcast<TileJobSpec> spec = jsc.broadcast(p.spec());
         ScenarioPlanner.Plan plan = p.plan();
         Broadcast<ScenarioPlanner.Plan> planB = jsc.broadcast(plan);
         List<TileSpec> tiles = p.tiles();
         Map<String, String> keys = Partitions.keys(p);
-        Path old = opt.outDir().toAbsolutePath().normalize();
+        Path old = outputFolder(opt.outDir());
         List<String> reuse = opt.resume() && Files.isDirectory(old) ? Partitions.complete(old, keys) : List.of();
         List<ScenarioVariant> variants = plan.variants().stream().filter(v -> !reuse.contains(v.name())).toList();
         if (!reuse.isEmpty() && !opt.quiet()) {
@@ -255,6 +261,26 @@ public final class CityJob {
             out.addAll(part);
         }
         return out;
+    }
+
+    /**
+     * The output folder: a path, or a {@code file:} URI (which a command line's path conversion
+     * turns into "file:/…"). Other URIs are refused: the maps are written through a local,
+     * seekable file and the Parquet footers are made canonical in place, neither of which a
+     * Hadoop file system such as HDFS (write-once files) allows.
+     */
+    static Path outputFolder(Path given) {
+        String s = given.toString();
+        if (s.startsWith("file:")) {
+            return Path.of(java.net.URI.create(s)).toAbsolutePath().normalize();
+        }
+        if (s.matches("^[A-Za-z][A-Za-z0-9+.-]+:/.*")) {
+            throw new UserInputException("--out " + s.replaceFirst(":/+", "://") + ": outputs are written to a "
+                    + "local folder or a file system every Spark host mounts (NFS, a cluster file system, a "
+                    + "Kubernetes volume), not to " + s.substring(0, s.indexOf(':')) + ":// URIs. Fix: write to such "
+                    + "a folder, then copy the finished folder, e.g. with hadoop fs -put");
+        }
+        return given.toAbsolutePath().normalize();
     }
 
     static void deleteQuietly(Path dir) {

@@ -29,7 +29,7 @@ final class Manifest {
         for (Map.Entry<String, String> e : p.inputFiles().entrySet()) {
             ObjectNode i = inputs.putObject(e.getKey());
             i.put("location", e.getValue());
-            i.put("sha256", sha256(Path.of(e.getValue())));
+            i.put("sha256", sha256(RunPreparer.localPath(e.getValue(), "inputs." + e.getKey())));
         }
         root.set("run_file", p.run().toTree());
         ObjectNode v = root.putObject("versions");

@@ -24,7 +24,7 @@ import org.thermotile.jobs.config.Scenario;
  * resumed run can keep.
  *
  * <p>A variant's key is the SHA-256 of everything its results depend on: the resolved run file
- * without the scenario sections, every input's hash, thermotile's version, and the variant's own
+ * without the scenario sections and input locations, every input's hash, thermotile's version, and the variant's own
  * definition. A partition is complete when the manifest records the same key and every file it
  * lists still has the recorded SHA-256.
  */
@@ -36,11 +36,18 @@ final class Partitions {
     /** Variant name → key. */
     static Map<String, String> keys(PreparedRun p) {
         ObjectNode tree = p.run().toTree();
-        tree.remove(List.of("scenarios", "sweep", "hotspots", "report"));
+        // Inputs count by content (their hashes below), not by where they are read from.
+        tree.remove(List.of("scenarios", "sweep", "hotspots", "report", "inputs"));
+        if (tree.get("weather") instanceof ObjectNode w) {
+            w.remove("file");
+        }
         StringBuilder common = new StringBuilder(tree.toString()).append('|').append(Manifest.version());
+        if (p.run().inputs().classesIsBuiltIn()) {
+            common.append("|classes=").append(p.run().inputs().classes());
+        }
         try {
             for (Map.Entry<String, String> e : new TreeMap<>(p.inputFiles()).entrySet()) {
-                common.append('|').append(e.getKey()).append('=').append(Manifest.sha256(Path.of(e.getValue())));
+                common.append("|").append(e.getKey()).append("=").append(Manifest.sha256(RunPreparer.localPath(e.getValue(), e.getKey())));
             }
         } catch (IOException e) {
             throw new UncheckedIOException(e);

@@ -76,7 +76,7 @@ public final class RunPreparer {
         Map<String, String> inputs = new LinkedHashMap<>();
         RunFile.Inputs in = run.inputs();
         Path landCover = localPath(in.landCover(), "inputs.land_cover");
-        inputs.put("land_cover", landCover.toString());
+        inputs.put("land_cover", location(in.landCover(), landCover));
 
         RasterGrid grid;
         Double noData;
@@ -117,7 +117,7 @@ public final class RunPreparer {
         double tallest = 0;
         if (in.heights() != null) {
             Path heights = localPath(in.heights(), "inputs.heights");
-            inputs.put("heights", heights.toString());
+            inputs.put("heights", location(in.heights(), heights));
             try (GeoTiffReader h = GeoTiffReader.openSingleBand(heights)) {
                 grid.differenceFrom(h.grid()).ifPresent(d -> {
                     throw new UserInputException(heights + ": its grid differs from the land cover's ("
@@ -146,17 +146,18 @@ public final class RunPreparer {
         if (in.districts() != null) {
             Path d = localPath(in.districts(), "inputs.districts");
             districts = Districts.read(d, grid);
-            inputs.put("districts", d.toString());
+            inputs.put("districts", location(in.districts(), d));
         }
 
         // Materials and classes.
         Map<String, Material> known = new LinkedHashMap<>(MaterialLibrary.byId());
         if (in.materials() != null) {
             Path mf = localPath(in.materials(), "inputs.materials");
-            inputs.put("materials", mf.toString());
+            inputs.put("materials", location(in.materials(), mf));
             known.putAll(MaterialsFile.mergeWithLibrary(MaterialsFile.read(mf)));
         }
-        ClassTable table = ClassTableReader.resolve(in.classes(), known.keySet());
+        ClassTable table = ClassTableReader.resolve(in.classesIsBuiltIn() ? in.classes()
+                : localPath(in.classes(), "inputs.classes").toString(), known.keySet());
         if (!in.classesIsBuiltIn()) {
             inputs.put("classes", in.classes());
         }
@@ -202,7 +203,7 @@ public final class RunPreparer {
                     offset.getTotalSeconds(), syn.tMinC(), syn.tMaxC(), syn.relHumidityPct() / 100.0, syn.windMs()));
         } else {
             Path wf = localPath(run.weather().file(), "weather.file");
-            inputs.put("weather", wf.toString());
+            inputs.put("weather", location(run.weather().file(), wf));
             WeatherRead read;
             try {
                 read = WeatherCsv.read(wf, run.weather().fillGapsMaxHours() > 0
@@ -257,9 +258,10 @@ public final class RunPreparer {
         TileSimulation.Settings settings = new TileSimulation.Settings(run.physics().timestepMinutes(),
                 convection, deepK, firstSample, run.outputs().thresholdK(),
                 hourlyIdx.stream().mapToInt(Integer::intValue).toArray());
-        TileJobSpec spec = new TileJobSpec(landCover.toString(), grid, palette.toArray(new Material[0]), lut,
+        TileJobSpec spec = new TileJobSpec(location(in.landCover(), landCover), grid, palette.toArray(new Material[0]), lut,
                 districts == null ? List.of() : districts.geometries(), used, settings,
-                in.heights() == null ? null : localPath(in.heights(), "inputs.heights").toString(), geometry);
+                in.heights() == null ? null : location(in.heights(), localPath(in.heights(), "inputs.heights")),
+                geometry);
         List<String> districtNames = districts == null ? List.of()
                 : districts.districts().stream().map(Districts.District::name).toList();
         return new PreparedRun(run, grid, spec, TileSpec.plan(grid.width(), grid.height(), tileSize),
@@ -278,7 +280,11 @@ public final class RunPreparer {
                 Arrays.copyOf(f.sunZenithDeg, hours), Arrays.copyOf(f.sunAzimuthDeg, hours));
     }
 
-    /** A local path from a run-file location (file: URIs accepted). */
+    /**
+     * A local path from a run-file location: a path, a {@code file:} URI, or a Hadoop URI
+     * ({@code hdfs://}, {@code s3a://}, …) whose file is copied to a local folder first
+     * ({@link InputStaging}).
+     */
     static Path localPath(String location, String key) {
         if (location == null) {
             throw new UserInputException("run file: " + key + " is missing");
@@ -286,11 +292,15 @@ public final class RunPreparer {
         if (location.startsWith("file:")) {
             return Path.of(java.net.URI.create(location));
         }
-        if (location.matches("^[a-z][a-z0-9+.-]*://.*")) {
-            throw new UserInputException(key + ": '" + location + "' is not a local file; this version "
-                    + "reads local files and file:// URIs only");
+        if (InputStaging.isRemote(location)) {
+            return InputStaging.local(location, key);
         }
         return Path.of(location);
+    }
+
+    /** What the manifest and the tasks see: the URI of a remote input, else the local path. */
+    static String location(String written, Path local) {
+        return InputStaging.isRemote(written) ? written : local.toString();
     }
 
     /** Geographic latitude and longitude [°] of the grid's centre. */

@@ -189,8 +189,10 @@ public final class ScenarioPlanner {
             int w = p.grid().width();
             GridScan g = new GridScan(w * p.grid().height());
             Arrays.fill(g.district, -1);
-            try (GeoTiffReader lc = GeoTiffReader.openSingleBand(Path.of(spec.landCover()));
-                    GeoTiffReader hr = spec.heights() == null ? null : GeoTiffReader.openSingleBand(Path.of(spec.heights()))) {
+            // On the driver: the local copies the run's checks read (URIs are staged once).
+            try (GeoTiffReader lc = GeoTiffReader.openSingleBand(RunPreparer.localPath(spec.landCover(), "inputs.land_cover"));
+                    GeoTiffReader hr = spec.heights() == null ? null
+                            : GeoTiffReader.openSingleBand(RunPreparer.localPath(spec.heights(), "inputs.heights"))) {
                 for (TileSpec t : p.tiles()) {
                     int[] codes = lc.readIntWindow(t.col0(), t.row0(), t.width(), t.height());
                     float[] h = hr == null ? null : hr.readFloatWindow(t.col0(), t.row0(), t.width(), t.height());

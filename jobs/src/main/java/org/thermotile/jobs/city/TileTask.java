@@ -28,8 +28,8 @@ public final class TileTask {
         int r1 = Math.min(spec.grid().height(), tile.row0() + tile.height() + halo);
         float[] h;
         int[] codes;
-        try (GeoTiffReader hr = GeoTiffReader.openSingleBand(Path.of(spec.heights()));
-                GeoTiffReader lc = GeoTiffReader.openSingleBand(Path.of(spec.landCover()))) {
+        try (GeoTiffReader hr = GeoTiffReader.openSingleBand(landCover(spec.heights()));
+                GeoTiffReader lc = GeoTiffReader.openSingleBand(landCover(spec.landCover()))) {
             h = hr.readFloatWindow(c0, r0, c1 - c0, r1 - r0);
             codes = lc.readIntWindow(c0, r0, c1 - c0, r1 - r0);
         }
@@ -69,7 +69,7 @@ public final class TileTask {
             java.util.BitSet roofs) {
         long t0 = System.nanoTime();
         int[] codes;
-        try (GeoTiffReader r = GeoTiffReader.openSingleBand(Path.of(spec.landCover()))) {
+        try (GeoTiffReader r = GeoTiffReader.openSingleBand(landCover(spec.landCover()))) {
             codes = r.readIntWindow(tile.col0(), tile.row0(), tile.width(), tile.height());
         }
         int[] idx = new int[codes.length];
@@ -107,5 +107,17 @@ public final class TileTask {
                 spec.forcing(), spec.settings(), geom);
         return new TileOutput(variant == null ? "baseline" : variant.name(), tile, codes, idx, district, res,
                 (System.nanoTime() - t0) / 1e9);
+    }
+
+    /**
+     * An input raster (land cover, heights) as this executor sees it: the path itself (one machine, or a file system
+     * every host mounts), or for a Hadoop URI the copy Spark fetched for this executor
+     * ({@code SparkContext.addFile} on the driver, see {@link CityJob}).
+     */
+    static Path landCover(String location) {
+        if (InputStaging.isRemote(location)) {
+            return Path.of(org.apache.spark.SparkFiles.get(InputStaging.fileName(location)));
+        }
+        return location.startsWith("file:") ? Path.of(java.net.URI.create(location)) : Path.of(location);
     }
 }

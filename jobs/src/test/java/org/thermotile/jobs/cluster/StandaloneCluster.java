@@ -2,8 +2,6 @@ package org.thermotile.jobs.cluster;
 
 import java.io.File;
 import java.io.IOException;
-import java.io.InputStream;
-import java.io.OutputStream;
 import java.lang.management.ManagementFactory;
 import java.net.InetAddress;
 import java.net.ServerSocket;
@@ -16,7 +14,6 @@ import java.nio.file.Files;
 import java.nio.file.Path;
 import java.time.Duration;
 import java.util.ArrayList;
-import java.util.Arrays;
 import java.util.List;
 import java.util.Optional;
 import java.util.concurrent.TimeUnit;
@@ -364,10 +361,5 @@ final class StandaloneCluster implements AutoCloseable {
         } catch (IOException e) {
             return "(no log at " + file + ")";
         }
-    }
-
-    @SuppressWarnings("unused")
-    private static void copy(InputStream in, OutputStream out) throws IOException {
-        in.transferTo(out);
     }
 }
