@@ -7,29 +7,16 @@ import java.nio.file.Files;
 import java.nio.file.Path;
 import java.nio.file.StandardCopyOption;
 import java.util.ArrayList;
-import java.util.Arrays;
-import java.util.Comparator;
 import java.util.List;
 import java.util.Map;
-import java.util.stream.Stream;
 import org.apache.spark.api.java.JavaRDD;
 import org.apache.spark.api.java.JavaSparkContext;
 import org.apache.spark.broadcast.Broadcast;
-import org.apache.spark.sql.Dataset;
-import org.apache.spark.sql.Row;
-import org.apache.spark.sql.RowFactory;
-import org.apache.spark.sql.SaveMode;
 import org.apache.spark.sql.SparkSession;
-import org.apache.spark.sql.types.DataTypes;
-import org.apache.spark.sql.types.StructType;
 import org.apache.spark.storage.StorageLevel;
 import org.thermotile.jobs.cli.UserInputException;
 import org.thermotile.jobs.io.Folders;
-import org.thermotile.jobs.io.raster.GeoTiffWriter;
-import org.thermotile.jobs.io.raster.RasterGrid;
-import org.thermotile.model.constants.Physical;
 import org.thermotile.model.stats.GroupHourStats;
-import org.thermotile.model.tile.TileSimulation;
 
 /**
  * The city job: one Spark task per tile, statistics back, maps and tables written, all of it
@@ -209,7 +196,7 @@ public final class CityJob {
                 maxClosure, maps);
         Manifest.write(p, s, simSeconds, Partitions.record(tmp, keys), reuse, tmp.resolve("manifest.json"));
         if (plan.variants().size() > 1) {
-            Comparison.write(spark, p, tmp);
+            Comparison.write(spark, tmp);
         }
         HotspotsBlock hs = HotspotsBlock.of(p.run(), p.grid().pixelWidth());
         if (hs != null) {

@@ -92,11 +92,6 @@ public final class Comparison {
         }
     }
 
-    /** Convenience for the run: the run folder is the temporary one being written. */
-    static void write(SparkSession spark, PreparedRun p, Path tmp) {
-        write(spark, tmp);
-    }
-
     static void deltaMaps(Path runDir, JsonNode sc) {
         for (JsonNode s : sc.path("list")) {
             String name = s.path("name").asText();

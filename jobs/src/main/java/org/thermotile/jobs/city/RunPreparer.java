@@ -1,6 +1,5 @@
 package org.thermotile.jobs.city;
 
-import java.nio.file.Files;
 import java.nio.file.Path;
 import java.time.Instant;
 import java.time.LocalDate;
@@ -29,7 +28,6 @@ import org.thermotile.jobs.io.weather.GapFill;
 import org.thermotile.jobs.io.weather.WeatherCsv;
 import org.thermotile.jobs.io.weather.WeatherRead;
 import org.thermotile.model.balance.Convection;
-import org.thermotile.model.constants.Physical;
 import org.thermotile.model.forcing.Forcing;
 import org.thermotile.model.forcing.ForcingPreparer;
 import org.thermotile.model.forcing.HourlyWeather;
@@ -321,8 +319,4 @@ public final class RunPreparer {
         }
     }
 
-    /** Air temperature in °C (for messages). */
-    static double celsius(double k) {
-        return k - Physical.ZERO_CELSIUS_K;
-    }
 }

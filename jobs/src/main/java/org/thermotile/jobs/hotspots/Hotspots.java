@@ -20,7 +20,6 @@ import java.util.Locale;
 import java.util.Map;
 import java.util.OptionalInt;
 import java.util.TreeMap;
-import java.util.stream.Stream;
 import org.apache.commons.math3.distribution.NormalDistribution;
 import org.apache.spark.api.java.JavaSparkContext;
 import org.apache.spark.sql.Row;
