@@ -126,17 +126,53 @@ public final class BalanceKernel {
         final double wallLw = geometry
                 ? GeometryFactors.wallEmittedWm2(block.wallEmissivity, GeometryFactors.wallTempK(ta)) : 0.0;
 
+        final int[] nodeStart = block.nodeStart;
+        final int[] nodeCount = block.nodeCount;
+        final double[] bottomTemp = block.bottomTempK;
+        int eliminatedUntil = from; // cells below it have their surface-level P in pj[nodeStart]
         for (int c = from; c < to; c++) {
-            final int s = block.nodeStart[c];
-            final int last = s + block.nodeCount[c] - 1;
-            final double tb = block.bottomTempK[c];
+            final int s = nodeStart[c];
+            final int last = s + nodeCount[c] - 1;
+            final double tb = bottomTemp[c];
 
             // Bottom-up elimination: P_j = (C_j/Δt T_j + K_j P_{j+1}) / den_j, boundary P = T_b.
-            double pNext = tb;
-            for (int j = last; j > s; j--) {
-                double pv = (capDt[j] * temp[j] + cond[j] * pNext) * invDen[j];
-                pj[j] = pv;
-                pNext = pv;
+            // Each cell's sweep is a chain of dependent multiply-adds, so four neighbouring cells
+            // of the same depth are swept together, their chains interleaved (the same
+            // operations per cell, so the same bits); the surface slot of pj, unused by the
+            // sweep, carries each cell's result to its turn below.
+            if (c >= eliminatedUntil && c + 3 < to) {
+                final int n = nodeCount[c];
+                if (n > 1 && nodeCount[c + 1] == n && nodeCount[c + 2] == n && nodeCount[c + 3] == n) {
+                    final int s0 = s, s1 = nodeStart[c + 1], s2 = nodeStart[c + 2], s3 = nodeStart[c + 3];
+                    double q0 = tb, q1 = bottomTemp[c + 1], q2 = bottomTemp[c + 2], q3 = bottomTemp[c + 3];
+                    for (int k = n - 1; k > 0; k--) {
+                        final int j0 = s0 + k, j1 = s1 + k, j2 = s2 + k, j3 = s3 + k;
+                        q0 = (capDt[j0] * temp[j0] + cond[j0] * q0) * invDen[j0];
+                        q1 = (capDt[j1] * temp[j1] + cond[j1] * q1) * invDen[j1];
+                        q2 = (capDt[j2] * temp[j2] + cond[j2] * q2) * invDen[j2];
+                        q3 = (capDt[j3] * temp[j3] + cond[j3] * q3) * invDen[j3];
+                        pj[j0] = q0;
+                        pj[j1] = q1;
+                        pj[j2] = q2;
+                        pj[j3] = q3;
+                    }
+                    pj[s0] = q0;
+                    pj[s1] = q1;
+                    pj[s2] = q2;
+                    pj[s3] = q3;
+                    eliminatedUntil = c + 4;
+                }
+            }
+            double pNext;
+            if (c < eliminatedUntil) {
+                pNext = pj[s];
+            } else {
+                pNext = tb;
+                for (int j = last; j > s; j--) {
+                    double pv = (capDt[j] * temp[j] + cond[j] * pNext) * invDen[j];
+                    pj[j] = pv;
+                    pNext = pv;
+                }
             }
             // Surface: g(T) = a0 T + εσT⁴ + b q_sat(T) − R = 0.
             final double eps = block.emissivity[c];
