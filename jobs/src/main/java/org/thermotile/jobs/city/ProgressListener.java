@@ -7,7 +7,7 @@ import org.apache.spark.scheduler.SparkListenerTaskEnd;
 
 /**
  * A console line with tiles done of the total, cell-hours per second and the time left, fed by
- * Spark's task-end events of the simulation stage.
+ * Spark's task-end events (the job registers it only while the simulation runs).
  */
 final class ProgressListener extends SparkListener {
     private final int tiles;
@@ -15,7 +15,6 @@ final class ProgressListener extends SparkListener {
     private final PrintStream out;
     private final AtomicInteger done = new AtomicInteger();
     private final long startNanos = System.nanoTime();
-    private volatile int stageId = -1;
     private long lastPrintNanos;
 
     ProgressListener(int tiles, double cellHoursPerTile, PrintStream out) {
@@ -24,16 +23,9 @@ final class ProgressListener extends SparkListener {
         this.out = out;
     }
 
-    /** Counts only tasks of the given stage (the first stage that runs tile tasks). */
-    void watchStage(int id) {
-        stageId = id;
-    }
 
     @Override
     public void onTaskEnd(SparkListenerTaskEnd end) {
-        if (stageId >= 0 && end.stageId() != stageId) {
-            return;
-        }
         if (!"Success".equals(end.reason().toString())) {
             return;
         }

@@ -9,9 +9,4 @@ import org.thermotile.model.tile.TileSimulation;
  */
 public record TileOutput(String variant, TileSpec tile, int[] codes, int[] paletteIndex, int[] districtIndex,
         TileSimulation.Result result, double seconds) implements java.io.Serializable {
-
-    /** The same output labelled with the variant (baseline or scenario) it belongs to. */
-    public TileOutput withVariant(String name) {
-        return new TileOutput(name, tile, codes, paletteIndex, districtIndex, result, seconds);
-    }
 }

@@ -13,9 +13,11 @@ public final class TileTask {
 
     /**
      * The tile's heights with a halo of context (outside the raster: 0 m), split into buildings
-     * and trees by the land cover (tree-canopy cells are trees).
+     * and trees by the land cover (tree-canopy cells are trees). The land-cover window read for
+     * it covers the tile too, so the tile's own codes are copied into {@code tileCodes} rather
+     * than read again.
      */
-    static TileSimulation.Geometry geometry(TileSpec tile, TileJobSpec spec) {
+    static TileSimulation.Geometry geometry(TileSpec tile, TileJobSpec spec, int[] tileCodes) {
         GeometryBlock g = spec.geometry();
         int halo = g.haloCells();
         int wc = tile.width() + 2 * halo;
@@ -41,6 +43,10 @@ public final class TileTask {
                 int dst = (r - tile.row0() + halo) * wc + (c - tile.col0() + halo);
                 float v = Float.isNaN(h[src]) ? 0f : h[src];
                 int code = codes[src];
+                if (r >= tile.row0() && r < tile.row0() + tile.height() && c >= tile.col0()
+                        && c < tile.col0() + tile.width()) {
+                    tileCodes[(r - tile.row0()) * tile.width() + (c - tile.col0())] = code;
+                }
                 int m = code >= 0 && code < lut.length ? lut[code] : -1;
                 if (m >= 0 && ScenarioPlanner.TREES.equals(palette[m].id())) {
                     trees[dst] = v;
@@ -51,10 +57,6 @@ public final class TileTask {
         }
         return new TileSimulation.Geometry(buildings, trees, wc, wr, halo, spec.grid().pixelWidth(), g.searchRadiusM(),
                 g.directions(), g.canopyTransmissivity(), g.minSunElevationDeg(), g.wallEmissivity());
-    }
-
-    public static TileOutput run(TileSpec tile, TileJobSpec spec) {
-        return run(tile, spec, null, null, null);
     }
 
     /**
@@ -69,8 +71,14 @@ public final class TileTask {
             java.util.BitSet roofs) {
         long t0 = System.nanoTime();
         int[] codes;
-        try (GeoTiffReader r = GeoTiffReader.openSingleBand(landCover(spec.landCover()))) {
-            codes = r.readIntWindow(tile.col0(), tile.row0(), tile.width(), tile.height());
+        TileSimulation.Geometry geom = null;
+        if (spec.geometry() != null) {
+            codes = new int[tile.cells()];
+            geom = geometry(tile, spec, codes);
+        } else {
+            try (GeoTiffReader r = GeoTiffReader.openSingleBand(landCover(spec.landCover()))) {
+                codes = r.readIntWindow(tile.col0(), tile.row0(), tile.width(), tile.height());
+            }
         }
         int[] idx = new int[codes.length];
         int[] lut = spec.codeToPalette();
@@ -102,7 +110,6 @@ public final class TileTask {
                 idx[i] = cur;
             }
         }
-        TileSimulation.Geometry geom = spec.geometry() == null ? null : geometry(tile, spec);
         TileSimulation.Result res = TileSimulation.run(palette, idx, district, spec.districts().size(),
                 spec.forcing(), spec.settings(), geom);
         return new TileOutput(variant == null ? "baseline" : variant.name(), tile, codes, idx, district, res,

@@ -3,7 +3,6 @@ package org.thermotile.model.balance;
 import java.util.HashMap;
 import java.util.List;
 import java.util.Map;
-import org.thermotile.model.constants.Physical;
 import org.thermotile.model.materials.Material;
 
 /**
@@ -357,8 +356,4 @@ public final class SurfaceBlock {
         }
     }
 
-    /** Kelvin to degrees Celsius, for callers at the edge. */
-    public static double celsius(double tempK) {
-        return tempK - Physical.ZERO_CELSIUS_K;
-    }
 }

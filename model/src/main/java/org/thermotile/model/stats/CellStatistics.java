@@ -48,8 +48,8 @@ public final class CellStatistics {
         }
     }
 
-    /** Adds one sample of one cell (the caller counts samples with {@link #countSample}). */
-    public void sample(int c, double tK, int localHourOfDay, boolean night) {
+    /** Adds one sample of one cell. */
+    private void sample(int c, double tK, int localHourOfDay, boolean night) {
         if (tK > peakK[c]) {
             peakK[c] = tK;
             peakLocalHour[c] = localHourOfDay;
@@ -62,14 +62,6 @@ public final class CellStatistics {
         if (over > 0) {
             hoursAbove[c]++;
             degreeHoursAbove[c] += over;
-        }
-    }
-
-    /** Counts a sample taken cell by cell with {@link #sample(int, double, int, boolean)}. */
-    public void countSample(boolean night) {
-        samples++;
-        if (night) {
-            nightSamples++;
         }
     }
 
