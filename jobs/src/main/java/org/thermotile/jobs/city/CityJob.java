@@ -1,5 +1,6 @@
 package org.thermotile.jobs.city;
 
+import org.thermotile.jobs.io.RunLayout;
 import java.io.IOException;
 import java.io.PrintStream;
 import java.io.UncheckedIOException;
@@ -47,6 +48,16 @@ public final class CityJob {
 
     /** Runs on {@code session} if not null (left running), else on a session of its own. */
     public static Summary run(SparkSession session, PreparedRun prepared, Options opt, PrintStream console) {
+        return run(session, List.of(prepared), opt, console);
+    }
+
+    /**
+     * Runs every period of a run ({@link RunPreparer#prepareAll}) on {@code session} if not null
+     * (left running), else on a session of its own, and publishes them together: one period gives
+     * a run folder as {@link RunLayout#single}, several give a folder per period and tables
+     * partitioned by period ({@link RunLayout}).
+     */
+    public static Summary run(SparkSession session, List<PreparedRun> periods, Options opt, PrintStream console) {
         long t0 = System.nanoTime();
         Path out = outputFolder(opt.outDir());
         if (Files.exists(out) && !opt.replace() && !opt.resume()) {
@@ -61,10 +72,10 @@ public final class CityJob {
             Files.createDirectories(tmp);
             Summary s;
             if (session != null) {
-                s = execute(session, prepared, tmp, opt, console, t0);
+                s = executeAll(session, periods, tmp, out, opt, console, t0);
             } else {
                 try (SparkSession spark = SparkSessions.get(opt.master(), opt.threads())) {
-                    s = execute(spark, prepared, tmp, opt, console, t0);
+                    s = executeAll(spark, periods, tmp, out, opt, console, t0);
                 }
             }
             if (Files.exists(out)) {
@@ -82,7 +93,37 @@ public final class CityJob {
         }
     }
 
-    private static Summary execute(SparkSession spark, PreparedRun p, Path tmp, Options opt,
+    /** One period as a run of its own, or each period in turn and a manifest and comparison over them. */
+    private static Summary executeAll(SparkSession spark, List<PreparedRun> periods, Path tmp, Path old,
+            Options opt, PrintStream console, long t0) throws IOException {
+        if (periods.size() == 1 && periods.get(0).period() == null) {
+            return execute(spark, periods.get(0), RunLayout.single(tmp), RunLayout.single(old), opt, console, t0);
+        }
+        List<Summary> each = new ArrayList<>();
+        for (int i = 0; i < periods.size(); i++) {
+            PreparedRun p = periods.get(i);
+            if (!opt.quiet()) {
+                console.printf("period %s (%d of %d): %s … %s%n", p.period(), i + 1, periods.size(),
+                        p.run().period().start(), p.run().period().end());
+            }
+            each.add(execute(spark, p, new RunLayout(tmp, p.period()), new RunLayout(old, p.period()), opt, console,
+                    System.nanoTime()));
+        }
+        long cellHours = each.stream().mapToLong(Summary::cellHours).sum();
+        double maxClosure = each.stream().mapToDouble(Summary::maxClosureResidual).max().orElse(0);
+        List<String> maps = each.stream().flatMap(x -> x.maps().stream()).toList();
+        double wall = (System.nanoTime() - t0) / 1e9;
+        double simSeconds = each.stream().mapToDouble(Summary::wallSeconds).sum();
+        Summary all = new Summary(tmp, each.get(0).cells(), cellHours, wall, cellHours / Math.max(simSeconds, 1e-9),
+                maxClosure, maps);
+        Manifest.writePeriods(periods, each, all, tmp.resolve("manifest.json"));
+        if (periods.get(0).plan().variants().size() > 1) {
+            Comparison.writeAcrossPeriods(spark, tmp, periods.stream().map(PreparedRun::period).toList());
+        }
+        return all;
+    }
+
+    private static Summary execute(SparkSession spark, PreparedRun p, RunLayout lay, RunLayout oldLay, Options opt,
             PrintStream console, long t0) throws IOException {
         JavaSparkContext jsc = JavaSparkContext.fromSparkContext(spark.sparkContext());
         SparkSessions.awaitExecutors(spark);
@@ -97,8 +138,8 @@ public final class CityJob {
         Broadcast<ScenarioPlanner.Plan> planB = jsc.broadcast(plan);
         List<TileSpec> tiles = p.tiles();
         Map<String, String> keys = Partitions.keys(p);
-        Path old = outputFolder(opt.outDir());
-        List<String> reuse = opt.resume() && Files.isDirectory(old) ? Partitions.complete(old, keys) : List.of();
+        List<String> reuse = opt.resume() && Files.isDirectory(oldLay.root()) ? Partitions.complete(oldLay, keys)
+                : List.of();
         List<ScenarioVariant> variants = plan.variants().stream().filter(v -> !reuse.contains(v.name())).toList();
         if (!reuse.isEmpty() && !opt.quiet()) {
             console.println("resume: keeping " + reuse.size() + " complete partitions (" + String.join(", ", reuse)
@@ -142,49 +183,52 @@ public final class CityJob {
         // order), and maps streamed from tile rows fetched on demand: the driver never holds a grid.
         int nt = tiles.size();
         int tilesPerRow = (p.grid().width() + p.run().tiling().tileSize() - 1) / p.run().tiling().tileSize();
-        Files.createDirectories(tmp.resolve("tables"));
+        Files.createDirectories(lay.root().resolve("tables"));
         List<String> maps = new ArrayList<>();
         Map<String, GroupHourStats> materialHours = new java.util.LinkedHashMap<>();
         Map<String, GroupHourStats> districtHours = new java.util.LinkedHashMap<>();
-        double maxClosure = 0;
+        // Largest closure residual per variant: computed now, or as recorded for a kept partition.
+        Map<String, Double> closure = new java.util.HashMap<>(Partitions.closureResiduals(oldLay, reuse));
         long cellHours = 0;
         for (int vi = 0; vi < variants.size(); vi++) {
             ScenarioVariant v = variants.get(vi);
             int base = vi * nt;
             GroupHourStats mh = null;
             GroupHourStats dh = null;
+            double vmax = 0;
             for (int from = 0; from < nt; from += TOTALS_BATCH) {
                 for (TileTotals t : fetch(results, base + from, base + Math.min(nt, from + TOTALS_BATCH), TileTotals::of)) {
                     mh = merge(mh, t.materialHours());
                     dh = merge(dh, t.districtHours());
-                    maxClosure = Math.max(maxClosure, t.maxClosureResidual());
+                    vmax = Math.max(vmax, t.maxClosureResidual());
                     cellHours += t.cellHours();
                 }
             }
+            closure.put(v.name(), vmax);
             materialHours.put(v.name(), mh);
             districtHours.put(v.name(), dh);
-            Path mapsDir = Partitions.mapsDir(tmp, v.name());
+            Path mapsDir = lay.mapsDir(v.name());
             Files.createDirectories(mapsDir);
             MapOutputs.write(p, (layer, tileRow) -> fetch(results, base + tileRow * tilesPerRow,
                     base + Math.min(nt, (tileRow + 1) * tilesPerRow), o -> layer.of(o.result())), mapsDir);
         }
         List<String> variantNames = variants.stream().map(ScenarioVariant::name).toList();
-        TableOutputs.writeCells(spark, p, variantNames, results, tmp.resolve("tables/cells"));
-        TableOutputs.writeMaterialHours(spark, p, variants, materialHours, tmp.resolve("tables/material_hours"));
+        TableOutputs.writeCells(spark, p, variantNames, results, lay.table("cells"));
+        TableOutputs.writeMaterialHours(spark, p, variants, materialHours, lay.table("material_hours"));
         if (!p.districtNames().isEmpty()) {
-            TableOutputs.writeDistrictHours(spark, p, variantNames, districtHours, tmp.resolve("tables/district_hours"));
+            TableOutputs.writeDistrictHours(spark, p, variantNames, districtHours, lay.table("district_hours"));
         }
         if (p.hourlyEpochSeconds().length > 0) {
-            TableOutputs.writeCellHours(spark, p, results, tmp.resolve("tables/cell_hours"));
+            TableOutputs.writeCellHours(spark, p, results, lay.table("cell_hours"));
         }
         results.unpersist(false);
         for (String v : reuse) {
-            Partitions.copy(old, tmp, v);
+            Partitions.copy(oldLay, lay, v);
         }
         // Every variant's maps, computed now or kept, in plan order.
         maps.clear();
         for (ScenarioVariant v : plan.variants()) {
-            for (String f : Partitions.files(tmp, v.name())) {
+            for (String f : Partitions.files(lay, v.name())) {
                 if (f.endsWith(".tif")) {
                     maps.add(f.replace('\\', '/'));
                 }
@@ -192,16 +236,18 @@ public final class CityJob {
         }
 
         double wall = (System.nanoTime() - t0) / 1e9;
-        Summary s = new Summary(tmp, p.activeCells(), cellHours, wall, cellHours / Math.max(simSeconds, 1e-9),
+        double maxClosure = closure.values().stream().mapToDouble(Double::doubleValue).max().orElse(0);
+        Summary s = new Summary(lay.root(), p.activeCells(), cellHours, wall, cellHours / Math.max(simSeconds, 1e-9),
                 maxClosure, maps);
-        Manifest.write(p, s, simSeconds, Partitions.record(tmp, keys), reuse, tmp.resolve("manifest.json"));
+        Files.createDirectories(lay.dir());
+        Manifest.write(p, s, simSeconds, Partitions.record(lay, keys, closure), reuse, lay.dir().resolve("manifest.json"));
         if (plan.variants().size() > 1) {
-            Comparison.write(spark, tmp);
+            Comparison.write(spark, lay.dir());
         }
         HotspotsBlock hs = HotspotsBlock.of(p.run(), p.grid().pixelWidth());
         if (hs != null) {
             for (String stat : hs.statistics()) {
-                org.thermotile.jobs.hotspots.Hotspots.run(spark, tmp, hs.options(stat, p.run().tiling().tileSize()));
+                org.thermotile.jobs.hotspots.Hotspots.run(spark, lay.dir(), hs.options(stat, p.run().tiling().tileSize()));
             }
         }
         return s;

@@ -1,5 +1,6 @@
 package org.thermotile.jobs.city;
 
+import org.thermotile.jobs.io.RunLayout;
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import java.io.IOException;
@@ -10,6 +11,7 @@ import java.util.ArrayList;
 import java.util.Iterator;
 import java.util.List;
 import java.util.Locale;
+import java.util.Map;
 import org.apache.spark.sql.Dataset;
 import org.apache.spark.sql.Row;
 import org.apache.spark.sql.RowFactory;
@@ -92,6 +94,73 @@ public final class Comparison {
         }
     }
 
+    /** Columns of {@code comparison/ranking_by_period}: the period, then {@link #RANKING}. */
+    static final StructType RANKING_BY_PERIOD;
+
+    static {
+        StructType t = new StructType().add("period", DataTypes.StringType, false);
+        for (var f : RANKING.fields()) {
+            t = t.add(f);
+        }
+        RANKING_BY_PERIOD = t;
+    }
+
+    /**
+     * The comparison over the periods of a run with a weather axis, from each period's own
+     * comparison: {@code comparison/ranking_by_period.(parquet|csv)} (every period's ranking, period
+     * first) and {@code comparison/summary.md}, whose table shows each scenario's whole-grid rank,
+     * mean peak reduction and degree-hours avoided in every period, so a ranking that holds in one
+     * summer and not in another shows at a glance.
+     */
+    public static void writeAcrossPeriods(SparkSession spark, Path runDir, List<String> periods) {
+        List<Row> all = new ArrayList<>();
+        Map<String, Map<String, Row>> whole = new java.util.LinkedHashMap<>(); // scenario → period → (all) row
+        for (String p : periods) {
+            Path r = runDir.resolve("periods").resolve(p).resolve("comparison/ranking.parquet");
+            for (Row row : spark.read().parquet(r.toUri().toString()).collectAsList()) {
+                Object[] v = new Object[row.size() + 1];
+                v[0] = p;
+                for (int i = 0; i < row.size(); i++) {
+                    v[i + 1] = row.get(i);
+                }
+                all.add(RowFactory.create(v));
+                if (ALL.equals(row.getString(1))) {
+                    whole.computeIfAbsent(row.getString(0), k -> new java.util.LinkedHashMap<>()).put(p, row);
+                }
+            }
+        }
+        Path out = runDir.resolve("comparison");
+        try {
+            Files.createDirectories(out);
+            writeTable(spark, all, RANKING_BY_PERIOD, out.resolve("ranking_by_period.parquet"),
+                    out.resolve("ranking_by_period.csv"));
+            StringBuilder sb = new StringBuilder("# Programme comparison across periods\n\n");
+            sb.append("Each period is a complete run of the baseline and every scenario with that period's weather "
+                    + "(periods/NAME/comparison/ holds its full comparison). Whole grid; rank 1 is best; peak "
+                    + "reduction is baseline minus scenario (positive = cooler); degree-hours avoided are "
+                    + "area-weighted (K·h·m²).\n\n| scenario |");
+            for (String p : periods) {
+                sb.append(" rank ").append(p).append(" | peak reduction °C ").append(p)
+                        .append(" | degree-hours avoided ").append(p).append(" |");
+            }
+            sb.append("\n|---|").append("---:|---:|---:|".repeat(periods.size())).append('\n');
+            for (Map.Entry<String, Map<String, Row>> e : whole.entrySet()) {
+                sb.append("| ").append(e.getKey()).append(" |");
+                for (String p : periods) {
+                    Row r = e.getValue().get(p);
+                    sb.append(r == null ? " – | – | – |" : String.format(Locale.ROOT, " %d | %.2f | %.4g |",
+                            r.getInt(12), r.getDouble(4), r.getDouble(7)));
+                }
+                sb.append('\n');
+            }
+            sb.append("\nSurface temperature is not air temperature nor a heat-health index; these figures compare "
+                    + "options and do not replace local building codes or licensed professionals.\n");
+            Files.writeString(out.resolve("summary.md"), sb.toString());
+        } catch (IOException e) {
+            throw new UncheckedIOException(e);
+        }
+    }
+
     static void deltaMaps(Path runDir, JsonNode sc) {
         for (JsonNode s : sc.path("list")) {
             String name = s.path("name").asText();
@@ -119,7 +188,7 @@ public final class Comparison {
     }
 
     static List<Row> districtRows(SparkSession spark, Path runDir, JsonNode sc, double cellArea, double threshold) {
-        Dataset<Row> cells = spark.read().parquet(runDir.resolve("tables/cells").toUri().toString());
+        Dataset<Row> cells = spark.read().parquet(RunLayout.of(runDir).table("cells").toUri().toString());
         cells.createOrReplaceTempView("tt_cells");
         String q = "select s.scenario, coalesce(b.district, '(outside districts)') district, count(*) n,"
                 + " avg(b.peak_c - s.peak_c) red_mean, percentile(b.peak_c - s.peak_c, 0.95) red_p95,"

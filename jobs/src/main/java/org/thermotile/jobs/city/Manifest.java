@@ -25,6 +25,9 @@ final class Manifest {
         ObjectNode root = om.createObjectNode();
         root.put("format", "thermotile-run-manifest/1");
         root.put("name", p.run().name());
+        if (p.period() != null) {
+            root.put("period", p.period());   // one period of a run over several: see ../../manifest.json
+        }
         ObjectNode inputs = root.putObject("inputs");
         for (Map.Entry<String, String> e : p.inputFiles().entrySet()) {
             ObjectNode i = inputs.putObject(e.getKey());
@@ -97,6 +100,62 @@ final class Manifest {
         timing.put("computed_cell_hours", s.cellHours());
         var kept = timing.putArray("resumed_partitions");
         reused.forEach(kept::add);
+        root.put("caution", "Surface temperature is not air temperature nor a heat-health index. "
+                + "Results are estimates for comparing options; defer to local building codes and "
+                + "licensed professionals.");
+        Files.writeString(file, om.writeValueAsString(root) + "\n");
+    }
+
+    /**
+     * The manifest of a run over several periods, in the run folder: each period's folder, dates,
+     * weather (with its SHA-256) and totals, and where the tables are. Each period's folder holds
+     * the full manifest of that period (inputs, resolved run file, partitions).
+     */
+    static void writePeriods(java.util.List<PreparedRun> periods, java.util.List<CityJob.Summary> each,
+            CityJob.Summary all, Path file) throws IOException {
+        ObjectMapper om = new ObjectMapper().enable(SerializationFeature.INDENT_OUTPUT);
+        ObjectNode root = om.createObjectNode();
+        PreparedRun first = periods.get(0);
+        root.put("format", "thermotile-run-manifest/1");
+        root.put("name", first.run().name());
+        var ps = root.putArray("periods");
+        for (int i = 0; i < periods.size(); i++) {
+            PreparedRun p = periods.get(i);
+            ObjectNode o = ps.addObject();
+            o.put("name", p.period());
+            o.put("folder", "periods/" + p.period());
+            o.put("start", p.run().period().start().toString());
+            o.put("end", p.run().period().end().toString());
+            o.put("spin_up_days", p.run().period().spinUpDays());
+            String w = p.inputFiles().get("weather");
+            if (w != null) {
+                ObjectNode wo = o.putObject("weather");
+                wo.put("location", w);
+                wo.put("sha256", sha256(RunPreparer.localPath(w, "weather")));
+            } else {
+                o.put("weather", "synthetic");
+            }
+            o.put("counted_hours", p.sampleEpochSeconds().length);
+            o.put("cell_hours", p.cellHours() * p.plan().variants().size());
+            o.put("max_closure_residual", each.get(i).maxClosureResidual());
+        }
+        ObjectNode tables = root.putObject("tables");
+        tables.put("partitioning", "period, scenario");
+        var tl = tables.putArray("list");
+        for (String t : Partitions.TABLES) {
+            if (java.nio.file.Files.isDirectory(file.resolveSibling("tables").resolve(t))) {
+                tl.add("tables/" + t);
+            }
+        }
+        ObjectNode sim = root.putObject("simulation");
+        sim.put("cells", all.cells());
+        sim.put("variants", first.plan().variants().size());
+        sim.put("max_closure_residual", all.maxClosureResidual());
+        var outs = root.putArray("outputs");
+        all.maps().forEach(outs::add);
+        ObjectNode timing = root.putObject("timing");
+        timing.put("wall_seconds", round(all.wallSeconds()));
+        timing.put("computed_cell_hours", all.cellHours());
         root.put("caution", "Surface temperature is not air temperature nor a heat-health index. "
                 + "Results are estimates for comparing options; defer to local building codes and "
                 + "licensed professionals.");

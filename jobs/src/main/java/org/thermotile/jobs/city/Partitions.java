@@ -1,5 +1,6 @@
 package org.thermotile.jobs.city;
 
+import org.thermotile.jobs.io.RunLayout;
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import com.fasterxml.jackson.databind.node.ObjectNode;
@@ -64,9 +65,10 @@ final class Partitions {
      * Files of a variant's partition, relative to the run folder, sorted: its GeoTIFF maps (not the
      * comparison's delta maps, nor the report's PNGs) and its part of every table.
      */
-    static List<String> files(Path runDir, String variant) throws IOException {
+    static List<String> files(RunLayout lay, String variant) throws IOException {
         List<String> out = new ArrayList<>();
-        Path maps = mapsDir(runDir, variant);
+        Path runDir = lay.root();
+        Path maps = lay.mapsDir(variant);
         if (Files.isDirectory(maps)) {
             try (Stream<Path> s = Files.list(maps)) {
                 s.filter(f -> f.getFileName().toString().endsWith(".tif")
@@ -75,7 +77,7 @@ final class Partitions {
             }
         }
         for (String t : TABLES) {
-            Path d = runDir.resolve("tables").resolve(t).resolve("scenario=" + variant);
+            Path d = lay.table(t).resolve("scenario=" + variant);
             if (Files.isDirectory(d)) {
                 try (Stream<Path> s = Files.list(d)) {
                     s.forEach(f -> out.add(runDir.relativize(f).toString()));
@@ -86,31 +88,31 @@ final class Partitions {
         return out;
     }
 
-    static Path mapsDir(Path runDir, String variant) {
-        return Scenario.BASELINE.equals(variant) ? runDir.resolve("maps")
-                : runDir.resolve("scenarios").resolve(variant).resolve("maps");
-    }
-
-    /** The manifest's "partitions" block: per variant, its key and each file's SHA-256. */
-    static ObjectNode record(Path runDir, Map<String, String> keys) throws IOException {
+    /**
+     * The manifest's "partitions" block: per variant, its key and each file's SHA-256 (file names
+     * relative to the run folder).
+     */
+    static ObjectNode record(RunLayout lay, Map<String, String> keys, Map<String, Double> closure) throws IOException {
         ObjectNode root = new ObjectMapper().createObjectNode();
         for (Map.Entry<String, String> e : keys.entrySet()) {
             ObjectNode v = root.putObject(e.getKey());
             v.put("key", e.getValue());
+            v.put("max_closure_residual", closure.getOrDefault(e.getKey(), 0.0));
             ObjectNode files = v.putObject("files");
-            for (String f : files(runDir, e.getKey())) {
-                files.put(f, Manifest.sha256(runDir.resolve(f)));
+            for (String f : files(lay, e.getKey())) {
+                files.put(f, Manifest.sha256(lay.root().resolve(f)));
             }
         }
         return root;
     }
 
-    /** Variants of the existing run folder {@code old} whose partitions are complete for {@code keys}. */
-    static List<String> complete(Path old, Map<String, String> keys) {
+    /** Variants of the existing run (or period) {@code lay} whose partitions are complete for {@code keys}. */
+    static List<String> complete(RunLayout lay, Map<String, String> keys) {
         List<String> ok = new ArrayList<>();
         JsonNode parts;
+        Path old = lay.root();
         try {
-            parts = new ObjectMapper().readTree(old.resolve("manifest.json").toFile()).path("partitions");
+            parts = new ObjectMapper().readTree(lay.dir().resolve("manifest.json").toFile()).path("partitions");
         } catch (IOException e) {
             return ok;
         }
@@ -121,7 +123,7 @@ final class Partitions {
             }
             boolean good = true;
             try {
-                List<String> now = files(old, e.getKey());
+                List<String> now = files(lay, e.getKey());
                 List<String> listed = new ArrayList<>();
                 v.path("files").fieldNames().forEachRemaining(listed::add);
                 listed.sort(null);
@@ -140,12 +142,29 @@ final class Partitions {
         return ok;
     }
 
-    /** Copies a complete variant's partition from {@code old} into {@code tmp}. */
-    static void copy(Path old, Path tmp, String variant) throws IOException {
+    /** The largest closure residual each of {@code variants} had when the run {@code old} computed it. */
+    static Map<String, Double> closureResiduals(RunLayout old, List<String> variants) {
+        Map<String, Double> out = new LinkedHashMap<>();
+        if (variants.isEmpty()) {
+            return out;
+        }
+        try {
+            JsonNode parts = new ObjectMapper().readTree(old.dir().resolve("manifest.json").toFile()).path("partitions");
+            for (String v : variants) {
+                out.put(v, parts.path(v).path("max_closure_residual").asDouble(0));
+            }
+        } catch (IOException e) {
+            throw new UncheckedIOException(e);
+        }
+        return out;
+    }
+
+    /** Copies a complete variant's partition from the run {@code old} into the same place under {@code tmp}. */
+    static void copy(RunLayout old, RunLayout tmp, String variant) throws IOException {
         for (String f : files(old, variant)) {
-            Path dst = tmp.resolve(f);
+            Path dst = tmp.root().resolve(f);
             Files.createDirectories(dst.getParent());
-            Files.copy(old.resolve(f), dst, StandardCopyOption.COPY_ATTRIBUTES);
+            Files.copy(old.root().resolve(f), dst, StandardCopyOption.COPY_ATTRIBUTES);
         }
     }
 

@@ -63,6 +63,29 @@ public final class RunPreparer {
         return p.withPlan(ScenarioPlanner.plan(p, run.scenarios()));
     }
 
+    /**
+     * Every period of the run, prepared: one {@link PreparedRun} for a run of one period, else one
+     * per entry of {@code sweep.periods} (its weather and dates; the same city and scenarios), in
+     * file order. Every period is checked before anything runs.
+     */
+    public static List<PreparedRun> prepareAll(RunFile run, boolean confirmSweep) {
+        if (!run.hasPeriods()) {
+            return List.of(prepare(run, confirmSweep));
+        }
+        List<PreparedRun> out = new ArrayList<>();
+        for (RunFile.NamedPeriod np : run.periods()) {
+            try {
+                // The scenario plan (treated cells, roofs, costs) depends on the city alone: made once, shared.
+                PreparedRun p = out.isEmpty() ? prepare(run.forPeriod(np), confirmSweep)
+                        : prepareInputs(run.forPeriod(np)).withPlan(out.get(0).plan());
+                out.add(p.withPeriod(np.name()));
+            } catch (UserInputException | IllegalArgumentException e) {
+                throw new UserInputException("sweep.periods '" + np.name() + "': " + e.getMessage(), e);
+            }
+        }
+        return out;
+    }
+
     /** {@link #prepare(RunFile, boolean)} without confirming a large sweep. */
     public static PreparedRun prepare(RunFile run) {
         return prepare(run, false);
@@ -265,7 +288,7 @@ public final class RunPreparer {
         return new PreparedRun(run, grid, spec, TileSpec.plan(grid.width(), grid.height(), tileSize),
                 List.copyOf(labels), districtNames, Map.copyOf(known), counts, fallback, inputs,
                 samples.stream().mapToLong(Long::longValue).toArray(),
-                hourlyTimes.stream().mapToLong(Long::longValue).toArray(), notes, null);
+                hourlyTimes.stream().mapToLong(Long::longValue).toArray(), notes, null, null);
     }
 
     /** The forcing's first {@code hours} hours. */

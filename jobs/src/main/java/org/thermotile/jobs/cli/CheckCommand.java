@@ -27,7 +27,8 @@ final class CheckCommand implements Callable<Integer> {
     @Override
     public Integer call() {
         RunFile run = RunFileReader.read(runFile);
-        PreparedRun p = RunPreparer.prepare(run);
+        java.util.List<PreparedRun> periods = RunPreparer.prepareAll(run, false);
+        PreparedRun p = periods.get(0);
         PrintWriter out = spec.commandLine().getOut();
         out.printf(Locale.ROOT, "%s: ok%n", runFile);
         out.printf(Locale.ROOT, "  grid %d × %d cells of %.2f m, EPSG:%d, %d tiles of %d%n", p.grid().width(),
@@ -36,8 +37,11 @@ final class CheckCommand implements Callable<Integer> {
         out.printf(Locale.ROOT, "  %d cells with a material; land-cover codes and cells: %s%n", p.activeCells(),
                 p.codeCounts());
         out.printf(Locale.ROOT, "  materials: %s%n", String.join(", ", p.paletteLabels()));
-        out.printf(Locale.ROOT, "  %d simulated hours (%d counted), %.3g cell-hours%n",
-                p.spec().forcing().hours() - 1, p.sampleEpochSeconds().length, (double) p.cellHours());
+        for (PreparedRun x : periods) {
+            out.printf(Locale.ROOT, "  %s%d simulated hours (%d counted), %.3g cell-hours per variant%n",
+                    x.period() == null ? "" : "period " + x.period() + ": ", x.spec().forcing().hours() - 1,
+                    x.sampleEpochSeconds().length, (double) x.cellHours());
+        }
         for (var t : p.plan().treated()) {
             long cells = 0;
             for (int d = 0; d <= p.districtNames().size(); d++) {
@@ -48,7 +52,8 @@ final class CheckCommand implements Callable<Integer> {
                             .rangeClosed(0, p.districtNames().size())
                             .mapToDouble(d -> t.cost(d, p.grid().pixelAreaM2())).sum()) : "");
         }
-        p.notes().forEach(n -> out.println("  note: " + n));
+        periods.forEach(x -> x.notes().forEach(n -> out.println("  note: " + (x.period() == null ? "" : x.period() + ": ")
+                + n)));
         out.flush();
         return 0;
     }

@@ -2,6 +2,7 @@ package org.thermotile.jobs.cli;
 
 import java.io.PrintStream;
 import java.nio.file.Path;
+import java.util.List;
 import java.util.Locale;
 import java.util.concurrent.Callable;
 import org.thermotile.jobs.city.CityJob;
@@ -57,25 +58,40 @@ final class RunCommand implements Callable<Integer> {
 
     static CityJob.Summary execute(RunFile run, Path dir, String master, int threads, boolean replace,
             boolean quiet, boolean confirmSweep, boolean resume, PrintStream console) {
-        PreparedRun p = RunPreparer.prepare(run, confirmSweep);
+        List<PreparedRun> periods = RunPreparer.prepareAll(run, confirmSweep);
+        PreparedRun p = periods.get(0);
         if (!quiet) {
-            console.printf(Locale.ROOT, "%s: %d × %d cells of %.1f m (EPSG:%d), %d materials, %d counted hours%n",
+            console.printf(Locale.ROOT, "%s: %d × %d cells of %.1f m (EPSG:%d), %d materials, %d counted hours%s%n",
                     run.name(), p.grid().width(), p.grid().height(), p.grid().pixelWidth(), p.grid().epsg(),
-                    p.paletteLabels().size(), p.sampleEpochSeconds().length);
-            p.notes().forEach(n -> console.println("note: " + n));
+                    p.paletteLabels().size(), periods.stream().mapToInt(x -> x.sampleEpochSeconds().length).sum(),
+                    run.hasPeriods() ? " in " + periods.size() + " periods" : "");
+            periods.forEach(x -> x.notes().forEach(n -> console.println("note: "
+                    + (x.period() == null ? "" : x.period() + ": ") + n)));
         }
-        CityJob.Summary s = CityJob.run(p, new CityJob.Options(dir, master, replace, quiet, threads, resume), console);
+        CityJob.Summary s = CityJob.run(null, periods, new CityJob.Options(dir, master, replace, quiet, threads, resume),
+                console);
         console.printf(Locale.ROOT, "done: %d cells, %.3g cell-hours in %.1f s (%.3g cell-hours/s), "
                         + "largest closure residual %.1e%n", s.cells(), (double) s.cellHours(), s.wallSeconds(),
                 s.cellHoursPerSecond(), s.maxClosureResidual());
         console.println("outputs: " + s.outDir());
-        console.println("  maps/      " + String.join(" ", s.maps().stream().filter(m -> m.startsWith("maps/"))
-                .map(m -> m.substring("maps/".length())).toList()));
-        console.println("  tables/    cells, material_hours" + (p.districtNames().isEmpty() ? "" : ", district_hours")
-                + (p.hourlyEpochSeconds().length > 0 ? ", cell_hours" : "") + " (Parquet)");
-        if (!run.scenarios().isEmpty()) {
-            console.println("  scenarios/ " + run.scenarios().size() + " programmes, maps and delta maps each");
-            console.println("  comparison/summary.md, ranking.csv, districts.csv");
+        if (run.hasPeriods()) {
+            console.println("  periods/   " + String.join(" ", run.periods().stream().map(RunFile.NamedPeriod::name)
+                    .toList()) + " (each: maps/, scenarios/, comparison/, manifest.json, report.html)");
+            console.println("  tables/    cells, material_hours" + (p.districtNames().isEmpty() ? "" : ", district_hours")
+                    + (periods.stream().anyMatch(x -> x.hourlyEpochSeconds().length > 0) ? ", cell_hours" : "")
+                    + " (Parquet, partitioned by period and scenario)");
+            if (!run.scenarios().isEmpty()) {
+                console.println("  comparison/summary.md, ranking_by_period.csv (every period's ranking)");
+            }
+        } else {
+            console.println("  maps/      " + String.join(" ", s.maps().stream().filter(m -> m.startsWith("maps/"))
+                    .map(m -> m.substring("maps/".length())).toList()));
+            console.println("  tables/    cells, material_hours" + (p.districtNames().isEmpty() ? "" : ", district_hours")
+                    + (p.hourlyEpochSeconds().length > 0 ? ", cell_hours" : "") + " (Parquet)");
+            if (!run.scenarios().isEmpty()) {
+                console.println("  scenarios/ " + run.scenarios().size() + " programmes, maps and delta maps each");
+                console.println("  comparison/summary.md, ranking.csv, districts.csv");
+            }
         }
         console.println("  manifest.json");
         try {

@@ -43,10 +43,63 @@ import org.thermotile.model.constants.Physical;
  * @param scenarios the programmes to compare with the baseline (from {@code scenarios:} and
  *                  {@code sweep:}), in file order; empty when there are none
  * @param sweepMax  the sweep's {@code max_scenarios}: more scenarios need confirmation
+ * @param periods   the sweep's weather axis ({@code sweep.periods}): every scenario, the baseline
+ *                  included, runs in each; empty for a run of one period. When not empty,
+ *                  {@code weather} is the run's own weather section (the entries' default) and
+ *                  {@code period} that of the first entry.
  */
 public record RunFile(String source, String name, Site site, Inputs inputs, Weather weather,
         Period period, Physics physics, Outputs outputs, Tiling tiling, Map<String, JsonNode> reserved,
-        List<Scenario> scenarios, int sweepMax) {
+        List<Scenario> scenarios, int sweepMax, List<NamedPeriod> periods) {
+
+    /** A run file of one period (no weather axis). */
+    public RunFile(String source, String name, Site site, Inputs inputs, Weather weather,
+            Period period, Physics physics, Outputs outputs, Tiling tiling, Map<String, JsonNode> reserved,
+            List<Scenario> scenarios, int sweepMax) {
+        this(source, name, site, inputs, weather, period, physics, outputs, tiling, reserved, scenarios,
+                sweepMax, List.of());
+    }
+
+    /**
+     * One entry of the weather axis: a named period with its own weather.
+     *
+     * @param name    folder and partition name, {@code [a-z0-9][a-z0-9._-]*}
+     * @param weather the period's weather (the run's {@code weather:} unless the entry names a file)
+     * @param period  the counted span and its spin-up
+     */
+    public record NamedPeriod(String name, Weather weather, Period period) {
+        public NamedPeriod {
+            Objects.requireNonNull(name, "name");
+            Objects.requireNonNull(weather, "weather");
+            Objects.requireNonNull(period, "period");
+        }
+    }
+
+    /** True when the run sweeps over several periods or weather files. */
+    public boolean hasPeriods() {
+        return !periods.isEmpty();
+    }
+
+    /**
+     * This run file for one entry of its weather axis: that entry's weather and period, no weather
+     * axis, and {@code sweep.periods} taken out of the raw sweep section (dropped altogether when the
+     * sweep held nothing else), so the result is a valid run file of one period.
+     */
+    public RunFile forPeriod(NamedPeriod p) {
+        Map<String, JsonNode> res = new TreeMap<>(reserved);
+        JsonNode sw = res.get("sweep");
+        if (sw instanceof ObjectNode o) {
+            ObjectNode copy = o.deepCopy();
+            copy.remove("periods");
+            if (copy.has("axes") || copy.has("change")) {
+                res.put("sweep", copy);
+            } else {
+                res.remove("sweep");
+            }
+        }
+        return new RunFile(source, name, site, inputs, p.weather(), p.period(), physics, outputs, tiling, res,
+                scenarios, sweepMax, List.of());
+    }
 
     public RunFile {
         Objects.requireNonNull(name, "name");
@@ -61,6 +114,7 @@ public record RunFile(String source, String name, Site site, Inputs inputs, Weat
         reserved.forEach((k, v) -> copy.put(k, v.deepCopy()));
         reserved = Collections.unmodifiableMap(copy);
         scenarios = scenarios == null ? List.of() : List.copyOf(scenarios);
+        periods = periods == null ? List.of() : List.copyOf(periods);
     }
 
     /** The raw section {@code key} (a deep copy: Jackson trees are mutable), or null if absent. */
@@ -334,10 +388,12 @@ public record RunFile(String source, String name, Site site, Inputs inputs, Weat
             w.put("file", weather.file());
             w.put("fill_gaps_max_hours", weather.fillGapsMaxHours());
         }
-        ObjectNode pe = root.putObject("period");
-        pe.put("start", period.start().toString());
-        pe.put("end", period.end().toString());
-        pe.put("spin_up_days", period.spinUpDays());
+        if (periods.isEmpty()) {             // with a weather axis, the periods are in sweep.periods
+            ObjectNode pe = root.putObject("period");
+            pe.put("start", period.start().toString());
+            pe.put("end", period.end().toString());
+            pe.put("spin_up_days", period.spinUpDays());
+        }
         ObjectNode ph = root.putObject("physics");
         ph.put("timestep_minutes", physics.timestepMinutes());
         if (physics.convection().isFixed()) {
@@ -360,6 +416,19 @@ public record RunFile(String source, String name, Site site, Inputs inputs, Weat
         outputs.hourlyDays().forEach(d -> days.add(d.toString()));
         root.putObject("tiling").put("tile_size", tiling.tileSize());
         reserved.forEach((k, v) -> root.set(k, v.deepCopy()));
+        if (!periods.isEmpty() && root.get("sweep") instanceof ObjectNode sw) {
+            ArrayNode ps = sw.putArray("periods");   // resolved: absolute weather files, ISO times
+            for (NamedPeriod np : periods) {
+                ObjectNode o = ps.addObject();
+                o.put("name", np.name());
+                if (!np.weather().isSynthetic() && !Objects.equals(np.weather().file(), weather.file())) {
+                    o.put("weather", np.weather().file());
+                }
+                o.put("start", np.period().start().toString());
+                o.put("end", np.period().end().toString());
+                o.put("spin_up_days", np.period().spinUpDays());
+            }
+        }
         return root;
     }
 

@@ -143,11 +143,25 @@ public final class RunFileReader {
                 "add 'inputs:' with at least land_cover and classes"), baseDir);
         RunFile.Weather weather = weather(top.section("weather", true,
                 "add 'weather:' with 'file: weather.csv' or 'synthetic: {…}'"), baseDir);
-        RunFile.Period period = period(top.section("period", true,
-                "add 'period:' with start and end dates"));
+        List<RunFile.NamedPeriod> periods = periods(doc, top.raw("sweep"), weather, baseDir);
+        RunFile.Period period;
+        List<RunFile.Period> spans = new ArrayList<>();
+        if (top.raw("sweep") != null && top.raw("sweep").has("periods")) {
+            if (top.has("period")) {
+                doc.at("period", "is given together with sweep.periods, which lists the periods to run; "
+                        + "remove 'period:' and give its dates as one entry of sweep.periods");
+            }
+            period = periods.isEmpty() ? null : periods.get(0).period();
+            periods.forEach(np -> spans.add(np.period()));
+        } else {
+            period = period(top.section("period", true, "add 'period:' with start and end dates"));
+            if (period != null) {
+                spans.add(period);
+            }
+        }
         RunFile.Physics physics = physics(top.section("physics", false, ""));
         RunFile.Outputs outputs = outputs(top.section("outputs", true,
-                "add 'outputs:' with at least 'maps: [peak]'"), period);
+                "add 'outputs:' with at least 'maps: [peak]'"), spans);
         RunFile.Tiling tiling = tiling(top.section("tiling", false, ""));
 
         Map<String, JsonNode> reserved = new TreeMap<>();
@@ -161,7 +175,7 @@ public final class RunFileReader {
             return null;
         }
         return new RunFile(source, name, site, inputs, weather, period, physics, outputs, tiling, reserved,
-                sc.scenarios(), sc.sweepMax());
+                sc.scenarios(), sc.sweepMax(), periods);
     }
 
     // ---------------------------------------------------------------- sections
@@ -291,6 +305,11 @@ public final class RunFileReader {
             return null;
         }
         s.checkKeys(PERIOD, List.of(), HOME);
+        return periodValues(s);
+    }
+
+    /** Start, end and spin-up of a period section (or of an entry of sweep.periods), keys already checked. */
+    private static RunFile.Period periodValues(Section s) {
         LocalDateTime start = time(s, "start", false);
         LocalDateTime end = time(s, "end", true);
         Integer spin = s.integer("spin_up_days", false, "give whole days, e.g. 2");
@@ -306,6 +325,57 @@ public final class RunFileReader {
             return null;
         }
         return new RunFile.Period(start, end, spin == null ? DEFAULT_SPIN_UP_DAYS : spin);
+    }
+
+    /** Keys of one entry of {@code sweep.periods}. */
+    static final List<String> SWEEP_PERIOD = List.of("name", "weather", "start", "end", "spin_up_days");
+
+    /**
+     * The weather axis, {@code sweep.periods}: a list of named periods, each with its own dates and,
+     * optionally, its own weather file (default: the run's {@code weather:}).
+     */
+    private static List<RunFile.NamedPeriod> periods(YamlDoc doc, JsonNode sweep, RunFile.Weather runWeather,
+            Path baseDir) {
+        List<RunFile.NamedPeriod> out = new ArrayList<>();
+        if (sweep == null || !sweep.isObject() || !sweep.has("periods")) {
+            return out;
+        }
+        JsonNode list = sweep.get("periods");
+        String fix = "list named periods, e.g. periods: [{name: july-2025, weather: weather-2025.csv, "
+                + "start: 2025-07-14, end: 2025-07-18}]";
+        if (!list.isArray() || list.isEmpty()) {
+            doc.at("sweep.periods", "expected a non-empty list of periods; " + fix);
+            return out;
+        }
+        java.util.Set<String> names = new java.util.HashSet<>();
+        for (int i = 0; i < list.size(); i++) {
+            Section s = Section.of(doc, list.get(i), "sweep.periods[" + i + "]");
+            if (s == null) {
+                continue;
+            }
+            s.checkKeys(SWEEP_PERIOD, List.of(), HOME);
+            String name = s.text("name", true, "give the period a name, e.g. 'name: july-2025'");
+            if (name != null) {
+                if (!name.matches("[a-z0-9][a-z0-9._-]{0,63}")) {
+                    doc.at(s.child("name"), "period name '" + name + "' must use lower-case letters, digits, "
+                            + "'.', '-' and '_' (1 to 64 characters); it names a folder and a partition");
+                } else if (!names.add(name)) {
+                    doc.at(s.child("name"), "period name '" + name + "' is used twice; give each period its own name");
+                }
+            }
+            RunFile.Weather w = runWeather;
+            if (s.has("weather")) {
+                String file = location(s, "weather", false, "give an hourly weather CSV, e.g. weather-2025.csv",
+                        baseDir);
+                w = file == null ? null : new RunFile.Weather(file,
+                        runWeather == null ? 0 : runWeather.fillGapsMaxHours(), null);
+            }
+            RunFile.Period p = periodValues(s);
+            if (name != null && w != null && p != null) {
+                out.add(new RunFile.NamedPeriod(name, w, p));
+            }
+        }
+        return out;
     }
 
     /** A local date (start: its midnight; end: the next midnight) or a local date-time on the hour. */
@@ -386,7 +456,7 @@ public final class RunFileReader {
                 deep == null ? Double.NaN : deep);
     }
 
-    private static RunFile.Outputs outputs(Section s, RunFile.Period period) {
+    private static RunFile.Outputs outputs(Section s, List<RunFile.Period> periods) {
         if (s == null) {
             return null;
         }
@@ -440,13 +510,21 @@ public final class RunFileReader {
                     s.doc.at(p, YamlDoc.describe(d) + " is not a date; write a local date such as 2026-07-16");
                 } else if (!days.add(day)) {
                     s.doc.at(p, day + " is listed twice; keep one");
-                } else if (period != null && !period.containsDay(day)) {
-                    s.doc.at(p, day + " is not a whole day inside the period " + period.start() + " … "
-                            + period.end() + " (end exclusive); pick a day of the period");
+                } else if (!periods.isEmpty() && !inAny(periods, day)) {
+                    RunFile.Period period = periods.get(0);
+                    s.doc.at(p, periods.size() == 1
+                            ? day + " is not a whole day inside the period " + period.start() + " … "
+                                    + period.end() + " (end exclusive); pick a day of the period"
+                            : day + " is not a whole day inside any of sweep.periods; pick a day of one of them "
+                                    + "(each period writes the hourly grids of the days it holds)");
                 }
             }
         }
         return new RunFile.Outputs(maps, threshold == null ? Double.NaN : threshold, new ArrayList<>(days));
+    }
+
+    private static boolean inAny(List<RunFile.Period> periods, LocalDate day) {
+        return periods.stream().anyMatch(pe -> pe.containsDay(day));
     }
 
     private static RunFile.Tiling tiling(Section s) {

@@ -32,6 +32,9 @@ import java.util.Set;
  *   axes:                        # Cartesian product; keys: adoption, seed, district, or a set key
  *     albedo: [0.5, 0.7, 0.85]
  *     adoption: [0.5, 1.0]
+ *   periods:                     # optional weather axis (read by RunFileReader): every scenario and
+ *     - {name: july-2025, weather: weather-2025.csv, start: 2025-07-14, end: 2025-07-18}
+ *     - {name: july-2026, start: 2026-07-14, end: 2026-07-18}   # the run's weather file
  * </pre>
  */
 final class ScenariosReader {
@@ -41,7 +44,7 @@ final class ScenariosReader {
     static final List<String> CHANGE_KEYS = List.of("targets", "adoption", "seed", "material", "set",
             "aged_albedo", "cost_per_m2");
     static final List<String> TARGET_KEYS = List.of("materials", "codes", "districts", "roofs_only");
-    static final List<String> SWEEP_KEYS = List.of("name", "max_scenarios", "change", "axes");
+    static final List<String> SWEEP_KEYS = List.of("name", "max_scenarios", "change", "axes", "periods");
     static final List<String> SET_SCALARS = List.of("albedo", "emissivity", "moisture_availability",
             "anthropogenic_heat");
     static final int DEFAULT_MAX_SCENARIOS = 50;
@@ -67,14 +70,16 @@ final class ScenariosReader {
             Section s = Section.of(doc, sweep, "sweep");
             if (s != null) {
                 s.checkKeys(SWEEP_KEYS, List.of(), Map.of());
-                String prefix = s.text("name", true, "give the sweep a name, e.g. 'name: roofs'");
+                // A sweep over periods alone (sweep.periods, read with the period) needs no scenario axes.
+                boolean scenarioAxes = s.has("change") || s.has("axes") || !s.has("periods");
+                String prefix = s.text("name", scenarioAxes, "give the sweep a name, e.g. 'name: roofs'");
                 Integer m = s.integer("max_scenarios", false, "a whole number, e.g. 50");
                 if (m != null) {
                     max = m;
                 }
-                Section tmpl = s.section("change", true, "give the template change, e.g. 'change: {targets: …, set: …}'");
-                Section axes = s.section("axes", true, "give at least one axis, e.g. 'axes: {albedo: [0.5, 0.7]}'");
-                if (tmpl != null && axes != null && prefix != null) {
+                Section tmpl = s.section("change", scenarioAxes, "give the template change, e.g. 'change: {targets: …, set: …}'");
+                Section axes = s.section("axes", scenarioAxes, "give at least one axis, e.g. 'axes: {albedo: [0.5, 0.7]}'");
+                if (scenarioAxes && tmpl != null && axes != null && prefix != null) {
                     size = sweep(doc, prefix, tmpl, axes, out);
                 }
             }

@@ -83,6 +83,12 @@ public final class RunFolder {
         } catch (IOException e) {
             throw new UserInputException(mf + ": cannot be read (" + e.getMessage() + ")", e);
         }
+        if (m != null && m.has("periods")) {
+            List<String> ps = new ArrayList<>();
+            m.path("periods").forEach(p -> ps.add(p.path("folder").asText()));
+            throw new UserInputException(dir + ": this run covers several periods (" + String.join(", ", ps)
+                    + "), each with its own maps. Fix: give one period's folder, e.g. " + dir.resolve(ps.get(0)));
+        }
         if (m == null || !m.path("format").asText("").startsWith("thermotile-run-manifest/")) {
             throw new UserInputException(mf + ", key format: '" + (m == null ? "" : m.path("format").asText(""))
                     + "' is not a thermotile run manifest (thermotile-run-manifest/1). Fix: give the folder "

@@ -20,6 +20,7 @@ import java.util.Map;
 import java.util.Optional;
 import java.util.TreeMap;
 import java.util.stream.Stream;
+import org.thermotile.jobs.io.RunLayout;
 import org.thermotile.jobs.io.raster.GeoTiffReader;
 import org.thermotile.jobs.io.raster.RasterGrid;
 
@@ -114,7 +115,72 @@ public final class RunReport {
             throw new ReportException(mf + ": cannot be read as JSON (" + e.getMessage() + "). Fix: run the job again");
         }
         RunReport r = new RunReport(dir, m);
+        if (m.has("periods")) {
+            // A run over several periods: a report per period, and an index of them here.
+            List<MapEntry> maps = new ArrayList<>();
+            for (JsonNode p : m.path("periods")) {
+                maps.addAll(build(dir.resolve(p.path("folder").asText())).maps());
+            }
+            return r.makeIndex(maps);
+        }
         return r.make();
+    }
+
+    /** The page of a run over several periods: its periods, linked to their reports, and the ranking across them. */
+    private Result makeIndex(List<MapEntry> maps) {
+        subtitle = "";
+        section("periods", "Periods");
+        body.append("<p>Each period is a complete run of the baseline and every scenario with its own weather; "
+                + "its report, maps and comparison are in its folder. The tables hold every period in one dataset "
+                + "per table, partitioned by period and scenario (<code>tables/cells/period=NAME/scenario=NAME/</code>).</p>\n");
+        body.append("<table>\n<thead><tr><th>period</th><th>from</th><th>to</th><th>weather</th><th class=\"n\">"
+                + "counted hours</th><th>report</th></tr></thead>\n<tbody>\n");
+        for (JsonNode p : manifest.path("periods")) {
+            String folder = p.path("folder").asText();
+            JsonNode w = p.path("weather");
+            String weather = w.isObject() ? fileName(w.path("location").asText()) : w.asText();
+            body.append("<tr><td>").append(Html.esc(p.path("name").asText())).append("</td><td>")
+                    .append(Html.esc(p.path("start").asText())).append("</td><td>")
+                    .append(Html.esc(p.path("end").asText())).append(" (exclusive)</td><td><code>")
+                    .append(Html.esc(weather)).append("</code></td><td class=\"n\">")
+                    .append(p.path("counted_hours").asInt()).append("</td><td><a href=\"")
+                    .append(Html.esc(folder + "/" + FILE)).append("\">").append(Html.esc(folder + "/" + FILE))
+                    .append("</a></td></tr>\n");
+        }
+        body.append("</tbody>\n</table>\n");
+        Path ranking = dir.resolve("comparison").resolve("ranking_by_period.csv");
+        if (Files.isRegularFile(ranking)) {
+            section("comparison", "Ranking across periods");
+            body.append("<p>Whole grid; rank 1 is best in its period. Peak reduction is baseline minus scenario "
+                    + "(positive = cooler). Full tables: <code>comparison/ranking_by_period.csv</code> and "
+                    + "<code>.parquet</code>.</p>\n");
+            try {
+                List<String> lines = Files.readAllLines(ranking, StandardCharsets.UTF_8);
+                List<String> head = List.of(lines.get(0).split(",", -1));
+                int iPeriod = head.indexOf("period"), iScen = head.indexOf("scenario"), iDist = head.indexOf("district");
+                int iRank = head.indexOf("rank"), iRed = head.indexOf("peak_reduction_mean_c");
+                int iDh = head.indexOf("degree_hours_avoided_k_h_m2");
+                body.append("<table>\n<thead><tr><th>period</th><th class=\"n\">rank</th><th>scenario</th>"
+                        + "<th class=\"n\">mean peak reduction °C</th><th class=\"n\">degree-hours avoided K·h·m²</th>"
+                        + "</tr></thead>\n<tbody>\n");
+                for (String line : lines.subList(1, lines.size())) {
+                    String[] c = line.split(",", -1);
+                    if (c.length != head.size() || !c[iDist].equals("(all)")) {
+                        continue;
+                    }
+                    body.append("<tr><td>").append(Html.esc(c[iPeriod])).append("</td><td class=\"n\">")
+                            .append(Html.esc(c[iRank])).append("</td><td>").append(Html.esc(c[iScen]))
+                            .append("</td><td class=\"n\">").append(Html.esc(c[iRed])).append("</td><td class=\"n\">")
+                            .append(Html.esc(c[iDh])).append("</td></tr>\n");
+                }
+                body.append("</tbody>\n</table>\n");
+            } catch (IOException | RuntimeException e) {
+                body.append("<p class=\"missing\">").append(Html.esc(ranking + " cannot be read: " + e.getMessage()))
+                        .append("</p>\n");
+            }
+        }
+        filesSection();
+        return publish(maps);
     }
 
     private Result make() {
@@ -126,6 +192,11 @@ public final class RunReport {
         hotspotsSection();
         scenariosSection();
         filesSection();
+        return publish(maps);
+    }
+
+    /** Writes the page atomically (a temporary sibling renamed over the old report). */
+    private Result publish(List<MapEntry> drawnMaps) {
         String page = page();
         Path out = dir.resolve(FILE);
         Path tmp = dir.resolve("." + FILE + ".partial");
@@ -135,7 +206,7 @@ public final class RunReport {
         } catch (IOException e) {
             throw new UncheckedIOException("cannot write " + out, e);
         }
-        return new Result(out, List.copyOf(maps), nav.stream().map(n -> n[0]).toList());
+        return new Result(out, List.copyOf(drawnMaps), nav.stream().map(n -> n[0]).toList());
     }
 
     // ----------------------------------------------------------------------------- run summary
@@ -436,8 +507,9 @@ public final class RunReport {
     }
 
     private void curvesSection() {
-        Path mh = baselinePartition(dir.resolve("tables/material_hours"));
-        Path dh = baselinePartition(dir.resolve("tables/district_hours"));
+        RunLayout lay = RunLayout.of(dir);
+        Path mh = baselinePartition(lay.table("material_hours"));
+        Path dh = baselinePartition(lay.table("district_hours"));
         boolean hasMaterials = Files.exists(mh), hasDistricts = Files.exists(dh);
         section("curves", "Curves");
         if (!hasMaterials) {
