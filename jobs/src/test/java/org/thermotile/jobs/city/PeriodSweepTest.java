@@ -268,6 +268,17 @@ class PeriodSweepTest {
         assertEquals(run.periods().get(1).weather(), one.weather());
     }
 
+    /** The bundled example of the weather axis reads and prepares: two periods of the demo week. */
+    @Test
+    void theBundledPeriodsExamplePrepares() {
+        var run = RunFileReader.read(Path.of("..", "data-samples", "riverside", "periods.yaml"));
+        List<PreparedRun> ps = RunPreparer.prepareAll(run, false);
+        assertEquals(List.of("cloudy-start", "hottest-days"), ps.stream().map(PreparedRun::period).toList());
+        assertEquals(List.of(48, 48), ps.stream().map(p -> p.sampleEpochSeconds().length).toList());
+        assertEquals(3, ps.get(0).plan().variants().size());
+        assertTrue(ps.get(0).plan() == ps.get(1).plan(), "the scenario plan is made once and shared");
+    }
+
     // ---- bad inputs
 
     static String problems(String text) throws Exception {
