@@ -34,10 +34,22 @@ public final class CityJob {
             double cellHoursPerSecond, double maxClosureResidual, List<String> maps) {
     }
 
-    /** Options of a run. */
-    public record Options(Path outDir, String master, boolean replace, boolean quiet, int threads, boolean resume) {
+    /**
+     * Options of a run.
+     *
+     * @param outDir        the output folder: a path, a {@code file:} URI, or a Hadoop URI such as
+     *                      {@code hdfs://namenode:8020/runs/x} (see {@link OutputStore})
+     * @param beforePublish called with the finished (still temporary) run folder just before it is
+     *                      published, e.g. to add the report; null for nothing
+     */
+    public record Options(Path outDir, String master, boolean replace, boolean quiet, int threads, boolean resume,
+            java.util.function.Consumer<Path> beforePublish) {
+        public Options(Path outDir, String master, boolean replace, boolean quiet, int threads, boolean resume) {
+            this(outDir, master, replace, quiet, threads, resume, null);
+        }
+
         public Options(Path outDir, String master, boolean replace, boolean quiet, int threads) {
-            this(outDir, master, replace, quiet, threads, false);
+            this(outDir, master, replace, quiet, threads, false, null);
         }
     }
 
@@ -59,6 +71,10 @@ public final class CityJob {
      */
     public static Summary run(SparkSession session, List<PreparedRun> periods, Options opt, PrintStream console) {
         long t0 = System.nanoTime();
+        String remote = remoteOutput(opt.outDir());
+        if (remote != null) {
+            return runToHadoop(session, periods, opt, console, remote, t0);
+        }
         Path out = outputFolder(opt.outDir());
         if (Files.exists(out) && !opt.replace() && !opt.resume()) {
             throw new UserInputException(out + " already exists. Fix: choose another --out folder, "
@@ -70,13 +86,9 @@ public final class CityJob {
             Files.createDirectories(parent);
             deleteTree(tmp);
             Files.createDirectories(tmp);
-            Summary s;
-            if (session != null) {
-                s = executeAll(session, periods, tmp, out, opt, console, t0);
-            } else {
-                try (SparkSession spark = SparkSessions.get(opt.master(), opt.threads())) {
-                    s = executeAll(spark, periods, tmp, out, opt, console, t0);
-                }
+            Summary s = inSession(session, opt, spark -> executeAll(spark, periods, tmp, out, opt, console, t0));
+            if (opt.beforePublish() != null) {
+                opt.beforePublish().accept(tmp);
             }
             if (Files.exists(out)) {
                 deleteTree(out);
@@ -90,6 +102,75 @@ public final class CityJob {
         } catch (RuntimeException | Error e) {
             deleteQuietly(tmp);
             throw e;
+        }
+    }
+
+    /** Work on a Spark session. */
+    private interface SessionWork {
+        Summary on(SparkSession spark) throws IOException;
+    }
+
+    /** {@code work} on {@code session}, or on a session of its own (stopped afterwards) if null. */
+    private static Summary inSession(SparkSession session, Options opt, SessionWork work) throws IOException {
+        if (session != null) {
+            return work.on(session);
+        }
+        try (SparkSession spark = SparkSessions.get(opt.master(), opt.threads())) {
+            return work.on(spark);
+        }
+    }
+
+    /**
+     * A run whose output folder is a Hadoop URI: built in a local staging folder mirrored on the
+     * target file system, then published there by one rename ({@link OutputStore}).
+     */
+    private static Summary runToHadoop(SparkSession session, List<PreparedRun> periods, Options opt,
+            PrintStream console, String target, long t0) {
+        if (opt.resume()) {
+            throw new UserInputException("--resume with --out " + target + ": resuming reads the older run's files in "
+                    + "place, which is done for local output folders only. Fix: copy the run folder to a local "
+                    + "folder (hadoop fs -get), resume there, or run again with --replace");
+        }
+        if (OutputStore.exists(target) && !opt.replace()) {
+            throw new UserInputException("--out " + target + " already exists. Fix: choose another --out folder or "
+                    + "add --replace to overwrite it");
+        }
+        String name = target.substring(target.lastIndexOf('/') + 1);
+        Path stagingRoot;
+        try {
+            stagingRoot = Files.createTempDirectory("thermotile-out-");
+        } catch (IOException e) {
+            throw new UncheckedIOException("cannot make a local staging folder in " + System.getProperty("java.io.tmpdir")
+                    + " (set java.io.tmpdir to a disk with room for one run's outputs)", e);
+        }
+        // Unique per run: tasks cache the files they fetch from it by location.
+        String partial = target.substring(0, target.lastIndexOf('/') + 1) + "." + name + "."
+                + stagingRoot.getFileName().toString().replace("thermotile-out-", "") + ".partial";
+        try {
+            Path staging = Files.createDirectories(stagingRoot.resolve(name));
+            OutputStore.delete(partial);
+            OutputStore.mirror(staging, partial);
+            Path none = stagingRoot.resolve("no-older-run");
+            Summary s = inSession(session, opt, spark -> executeAll(spark, periods, staging, none, opt, console, t0));
+            if (opt.beforePublish() != null) {
+                opt.beforePublish().accept(staging);
+            }
+            OutputStore.publish(staging, partial, target);
+            return new Summary(opt.outDir(), s.cells(), s.cellHours(), s.wallSeconds(), s.cellHoursPerSecond(),
+                    s.maxClosureResidual(), s.maps());
+        } catch (IOException e) {
+            OutputStore.delete(partial);
+            throw new UncheckedIOException(e);
+        } catch (RuntimeException | Error e) {
+            try {
+                OutputStore.delete(partial);
+            } catch (RuntimeException ignored) {
+                // the first failure is the one to report
+            }
+            throw e;
+        } finally {
+            OutputStore.forget(stagingRoot.resolve(name));
+            deleteQuietly(stagingRoot);
         }
     }
 
@@ -297,21 +378,24 @@ public final class CityJob {
     }
 
     /**
-     * The output folder: a path, or a {@code file:} URI (which a command line's path conversion
-     * turns into "file:/…"). Other URIs are refused: the maps are written through a local,
-     * seekable file and the Parquet footers are made canonical in place, neither of which a
-     * Hadoop file system such as HDFS (write-once files) allows.
+     * The Hadoop URI of an output folder given as one ({@code hdfs://…}, {@code s3a://…}; a command
+     * line's path conversion turns "hdfs://nn:8020/x" into "hdfs:/nn:8020/x"), or null for a local
+     * folder or a {@code file:} URI.
      */
+    public static String remoteOutput(Path given) {
+        String s = given.toString().replace('\\', '/');
+        if (!s.matches("^[A-Za-z][A-Za-z0-9+.-]+:/.*") || s.regionMatches(true, 0, "file:", 0, 5)) {
+            return null;
+        }
+        String uri = s.replaceFirst(":/+", "://");
+        return uri.endsWith("/") ? uri.substring(0, uri.length() - 1) : uri;
+    }
+
+    /** The local output folder: a path, or a {@code file:} URI. */
     static Path outputFolder(Path given) {
         String s = given.toString();
         if (s.startsWith("file:")) {
             return Path.of(java.net.URI.create(s)).toAbsolutePath().normalize();
-        }
-        if (s.matches("^[A-Za-z][A-Za-z0-9+.-]+:/.*")) {
-            throw new UserInputException("--out " + s.replaceFirst(":/+", "://") + ": outputs are written to a "
-                    + "local folder or a file system every Spark host mounts (NFS, a cluster file system, a "
-                    + "Kubernetes volume), not to " + s.substring(0, s.indexOf(':')) + ":// URIs. Fix: write to such "
-                    + "a folder, then copy the finished folder, e.g. with hadoop fs -put");
         }
         return given.toAbsolutePath().normalize();
     }

@@ -117,7 +117,7 @@ public final class Comparison {
         Map<String, Map<String, Row>> whole = new java.util.LinkedHashMap<>(); // scenario → period → (all) row
         for (String p : periods) {
             Path r = runDir.resolve("periods").resolve(p).resolve("comparison/ranking.parquet");
-            for (Row row : spark.read().parquet(r.toUri().toString()).collectAsList()) {
+            for (Row row : spark.read().parquet(OutputStore.sparkUri(r)).collectAsList()) {
                 Object[] v = new Object[row.size() + 1];
                 v[0] = p;
                 for (int i = 0; i < row.size(); i++) {
@@ -188,7 +188,7 @@ public final class Comparison {
     }
 
     static List<Row> districtRows(SparkSession spark, Path runDir, JsonNode sc, double cellArea, double threshold) {
-        Dataset<Row> cells = spark.read().parquet(RunLayout.of(runDir).table("cells").toUri().toString());
+        Dataset<Row> cells = spark.read().parquet(OutputStore.sparkUri(RunLayout.of(runDir).table("cells")));
         cells.createOrReplaceTempView("tt_cells");
         String q = "select s.scenario, coalesce(b.district, '(outside districts)') district, count(*) n,"
                 + " avg(b.peak_c - s.peak_c) red_mean, percentile(b.peak_c - s.peak_c, 0.95) red_p95,"
@@ -271,7 +271,7 @@ public final class Comparison {
     static void writeTable(SparkSession spark, List<Row> rows, StructType schema, Path parquet, Path csv)
             throws IOException {
         spark.createDataFrame(rows, schema).coalesce(1).write().mode(SaveMode.ErrorIfExists)
-                .parquet(parquet.toUri().toString());
+                .parquet(OutputStore.sparkUri(parquet));
         TableOutputs.renameParts(parquet);
         StringBuilder sb = new StringBuilder(String.join(",", schema.fieldNames())).append('\n');
         for (Row r : rows) {

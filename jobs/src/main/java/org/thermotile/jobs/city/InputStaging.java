@@ -42,7 +42,7 @@ public final class InputStaging {
     }
 
     /** A local copy of {@code location} (copied on the first call for that location in this JVM). */
-    static Path local(String location, String key) {
+    public static Path local(String location, String key) {
         return STAGED.computeIfAbsent(location, l -> copy(l, key));
     }
 
@@ -67,7 +67,7 @@ public final class InputStaging {
     }
 
     /** The default Hadoop configuration plus this JVM's {@code spark.hadoop.*} properties. */
-    static Configuration configuration() {
+    public static Configuration configuration() {
         Configuration c = new Configuration();
         for (String k : System.getProperties().stringPropertyNames()) {
             if (k.startsWith("spark.hadoop.")) {

@@ -306,7 +306,7 @@ public final class RunPreparer {
      * ({@code hdfs://}, {@code s3a://}, …) whose file is copied to a local folder first
      * ({@link InputStaging}).
      */
-    static Path localPath(String location, String key) {
+    public static Path localPath(String location, String key) {
         if (location == null) {
             throw new UserInputException("run file: " + key + " is missing");
         }

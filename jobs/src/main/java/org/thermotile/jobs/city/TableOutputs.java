@@ -23,7 +23,7 @@ import org.thermotile.model.tile.TileSimulation;
  * Writes the Parquet tables through Spark's commit protocol, then gives the part files
  * deterministic names (Spark's carry a per-job random id) so identical runs give identical trees.
  */
-final class TableOutputs {
+public final class TableOutputs {
     private TableOutputs() {}
 
     static final StructType CELLS = new StructType()
@@ -83,7 +83,7 @@ final class TableOutputs {
             return out.iterator();
         });
         spark.createDataFrame(rows, CELLS).write().mode(SaveMode.ErrorIfExists).partitionBy("scenario")
-                .parquet(dir.toUri().toString());
+                .parquet(OutputStore.sparkUri(dir));
         renameParts(dir);
     }
 
@@ -156,7 +156,7 @@ final class TableOutputs {
 
     static void writeGroupTable(SparkSession spark, List<Row> rows, String key, Path dir) {
         spark.createDataFrame(rows, groupHours(key)).coalesce(1).write().mode(SaveMode.ErrorIfExists)
-                .partitionBy("scenario").parquet(dir.toUri().toString());
+                .partitionBy("scenario").parquet(OutputStore.sparkUri(dir));
         renameParts(dir);
     }
 
@@ -183,7 +183,7 @@ final class TableOutputs {
             return out.iterator();
         });
         spark.createDataFrame(rows, CELL_HOURS).write().mode(SaveMode.ErrorIfExists).partitionBy("scenario")
-                .parquet(dir.toUri().toString());
+                .parquet(OutputStore.sparkUri(dir));
         renameParts(dir);
     }
 
@@ -193,14 +193,21 @@ final class TableOutputs {
      * part-00003-&lt;uuid&gt;-c000.snappy.parquet → part-00000.snappy.parquet, numbered in task
      * order within each folder (so a partition's names do not depend on which other partitions
      * the same job wrote), footer in canonical form ({@link ParquetFooter}); checksum files removed.
+     * For a run on a Hadoop file system, the table Spark wrote there is first copied into the
+     * staging folder ({@link OutputStore#pull}).
      */
-    static void renameParts(Path dir) {
+    public static void renameParts(Path dir) {
+        OutputStore.pull(dir);
+        renameLocalParts(dir);
+    }
+
+    private static void renameLocalParts(Path dir) {
         try (Stream<Path> s = Files.list(dir)) {
             List<Path> parts = new ArrayList<>();
             for (Path f : s.sorted().toList()) {
                 String n = f.getFileName().toString();
                 if (Files.isDirectory(f)) {
-                    renameParts(f);
+                    renameLocalParts(f);
                 } else if (n.endsWith(".crc")) {
                     Files.delete(f);
                 } else if (PART.matcher(n).matches()) {

@@ -68,12 +68,22 @@ final class RunCommand implements Callable<Integer> {
             periods.forEach(x -> x.notes().forEach(n -> console.println("note: "
                     + (x.period() == null ? "" : x.period() + ": ") + n)));
         }
-        CityJob.Summary s = CityJob.run(null, periods, new CityJob.Options(dir, master, replace, quiet, threads, resume),
-                console);
+        // The report is written into the finished folder before it is published, so it appears with it.
+        String[] reportProblem = {null};
+        java.util.function.Consumer<Path> report = folder -> {
+            try {
+                org.thermotile.jobs.report.RunReport.write(folder);
+            } catch (RuntimeException e) {
+                reportProblem[0] = e.getMessage();   // the run is still complete; only its report is missing
+            }
+        };
+        CityJob.Summary s = CityJob.run(null, periods,
+                new CityJob.Options(dir, master, replace, quiet, threads, resume, report), console);
+        String where = CityJob.remoteOutput(s.outDir()) != null ? CityJob.remoteOutput(s.outDir()) : s.outDir().toString();
         console.printf(Locale.ROOT, "done: %d cells, %.3g cell-hours in %.1f s (%.3g cell-hours/s), "
                         + "largest closure residual %.1e%n", s.cells(), (double) s.cellHours(), s.wallSeconds(),
                 s.cellHoursPerSecond(), s.maxClosureResidual());
-        console.println("outputs: " + s.outDir());
+        console.println("outputs: " + where);
         if (run.hasPeriods()) {
             console.println("  periods/   " + String.join(" ", run.periods().stream().map(RunFile.NamedPeriod::name)
                     .toList()) + " (each: maps/, scenarios/, comparison/, manifest.json, report.html)");
@@ -94,12 +104,11 @@ final class RunCommand implements Callable<Integer> {
             }
         }
         console.println("  manifest.json");
-        try {
-            java.nio.file.Path report = org.thermotile.jobs.report.RunReport.write(s.outDir());
-            console.println("  report:    " + report + " (open it in a browser)");
-        } catch (RuntimeException e) {
-            // The run itself is complete and published; only its report is missing.
-            console.println("  report:    not written (" + e.getMessage() + "); retry with: thermotile report " + s.outDir());
+        if (reportProblem[0] == null) {
+            console.println("  report:    " + where + "/" + org.thermotile.jobs.report.RunReport.FILE
+                    + " (open it in a browser)");
+        } else {
+            console.println("  report:    not written (" + reportProblem[0] + "); retry with: thermotile report " + where);
         }
         console.println("Surface temperature is not air temperature nor a heat-health index.");
         return s;

@@ -2,6 +2,8 @@ package org.thermotile.jobs.hotspots;
 
 import java.io.Serializable;
 import java.nio.file.Path;
+import org.thermotile.jobs.city.InputStaging;
+import org.thermotile.jobs.city.OutputStore;
 import org.thermotile.jobs.io.raster.GeoTiffReader;
 
 /**
@@ -19,18 +21,36 @@ record FieldSource(String map, String baseline) implements Serializable {
      */
     float[] read(int col0, int row0, int width, int height) {
         float[] a;
-        try (GeoTiffReader r = GeoTiffReader.openSingleBand(Path.of(map))) {
+        try (GeoTiffReader r = GeoTiffReader.openSingleBand(open(map))) {
             a = r.readFloatWindow(col0, row0, width, height);
         }
         if (baseline == null) {
             return a;
         }
-        try (GeoTiffReader r = GeoTiffReader.openSingleBand(Path.of(baseline))) {
+        try (GeoTiffReader r = GeoTiffReader.openSingleBand(open(baseline))) {
             float[] b = r.readFloatWindow(col0, row0, width, height);
             for (int i = 0; i < a.length; i++) {
                 a[i] = a[i] - b[i];               // NaN − x and x − NaN are NaN
             }
         }
         return a;
+    }
+
+    /**
+     * This source as tasks read it: for a run folder staged for a Hadoop file system, the maps are
+     * copied there first and read from there ({@link OutputStore}); otherwise unchanged.
+     */
+    FieldSource forTasks() {
+        OutputStore.push(Path.of(map));
+        if (baseline != null) {
+            OutputStore.push(Path.of(baseline));
+        }
+        return new FieldSource(OutputStore.executorLocation(Path.of(map)),
+                baseline == null ? null : OutputStore.executorLocation(Path.of(baseline)));
+    }
+
+    /** A local file for a location: the path, or this JVM's copy of a Hadoop URI. */
+    private static Path open(String location) {
+        return InputStaging.isRemote(location) ? InputStaging.local(location, "map") : Path.of(location);
     }
 }

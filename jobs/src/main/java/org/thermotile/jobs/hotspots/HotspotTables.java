@@ -1,13 +1,7 @@
 package org.thermotile.jobs.hotspots;
 
-import java.io.IOException;
-import java.io.UncheckedIOException;
-import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.List;
-import java.util.regex.Matcher;
-import java.util.regex.Pattern;
-import java.util.stream.Stream;
 import org.apache.spark.sql.Row;
 import org.apache.spark.sql.SaveMode;
 import org.apache.spark.sql.SparkSession;
@@ -61,29 +55,7 @@ final class HotspotTables {
 
     static void write(SparkSession spark, List<Row> rows, StructType schema, Path dir) {
         spark.createDataFrame(rows, schema).coalesce(1).write().mode(SaveMode.ErrorIfExists)
-                .parquet(dir.toUri().toString());
-        renameParts(dir);
-    }
-
-    private static final Pattern PART = Pattern.compile("part-(\\d+)-.*?(\\.[a-z0-9]+)?\\.parquet");
-
-    /** part-00000-&lt;uuid&gt;-c000.snappy.parquet → part-00000.snappy.parquet; checksum files removed. */
-    static void renameParts(Path dir) {
-        try (Stream<Path> s = Files.list(dir)) {
-            for (Path f : s.sorted().toList()) {
-                String n = f.getFileName().toString();
-                if (n.endsWith(".crc")) {
-                    Files.delete(f);
-                    continue;
-                }
-                Matcher m = PART.matcher(n);
-                if (m.matches()) {
-                    String ext = m.group(2) == null ? "" : m.group(2);
-                    Files.move(f, dir.resolve("part-" + m.group(1) + ext + ".parquet"));
-                }
-            }
-        } catch (IOException e) {
-            throw new UncheckedIOException(e);
-        }
+                .parquet(org.thermotile.jobs.city.OutputStore.sparkUri(dir));
+        org.thermotile.jobs.city.TableOutputs.renameParts(dir);   // footers canonical, as every table
     }
 }

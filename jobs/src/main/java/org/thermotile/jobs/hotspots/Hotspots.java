@@ -169,10 +169,10 @@ public final class Hotspots {
         HotspotOptions opt = p.options();
         List<String> notes = new ArrayList<>();
         JavaSparkContext jsc = JavaSparkContext.fromSparkContext(spark.sparkContext());
-        FieldSource src = field.source();
+        FieldSource src = field.source().forTasks();
 
         // Pass 1: global n, mean, S over fixed blocks, merged in block order.
-        FieldSource ref = field.reference();
+        FieldSource ref = field.reference().forTasks();
         List<int[]> blocks = windows(grid, STATS_BLOCK);
         List<GlobalMoments> parts = jsc.parallelize(blocks, Math.max(1, blocks.size())).map(w -> {
             GlobalMoments m = new GlobalMoments();

@@ -126,7 +126,10 @@ public final class RunFolder {
     /** The districts file of the run (manifest run_file.inputs.districts), if any. */
     public Optional<Path> districtsFile() {
         JsonNode d = manifest.path("run_file").path("inputs").path("districts");
-        return d.isTextual() && !d.asText().isBlank() ? Optional.of(Path.of(d.asText())) : Optional.empty();
+        // A path, a file: URI, or a Hadoop URI (this JVM's local copy of it).
+        return d.isTextual() && !d.asText().isBlank()
+                ? Optional.of(org.thermotile.jobs.city.RunPreparer.localPath(d.asText(), "run_file.inputs.districts"))
+                : Optional.empty();
     }
 
     /** Scenario names: the folders under scenarios/ that hold maps/, sorted. */

@@ -4,7 +4,6 @@ import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import java.io.IOException;
 import java.io.UncheckedIOException;
-import java.net.URI;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
@@ -344,15 +343,12 @@ public final class RunReport {
             return;
         }
         Path file;
-        if (loc.matches("^[A-Za-z][A-Za-z0-9+.-]+:.*") && !loc.matches("^[A-Za-z]:[\\\\/].*")) {
-            URI uri = URI.create(loc);
-            if (!"file".equalsIgnoreCase(uri.getScheme())) {
-                notes.add("District outlines are not drawn: " + loc + " is not a local file.");
-                return;
-            }
-            file = Path.of(uri);
-        } else {
-            file = Path.of(loc);
+        try {
+            // A path, a file: URI, or a Hadoop URI (fetched once into a local copy).
+            file = org.thermotile.jobs.city.RunPreparer.localPath(loc, "run_file.inputs.districts");
+        } catch (RuntimeException e) {
+            notes.add("District outlines are not drawn: " + loc + " cannot be read (" + e.getMessage() + ").");
+            return;
         }
         if (!Files.isRegularFile(file)) {
             notes.add("District outlines are not drawn: " + file + " (named in the manifest) is not there any more.");

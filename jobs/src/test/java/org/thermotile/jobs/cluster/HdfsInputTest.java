@@ -32,7 +32,8 @@ import org.thermotile.jobs.config.RunFileReader;
  * {@code hdfs://} URIs. The run (embedded Spark; the land cover reaches the tasks through Spark's
  * file distribution) gives the same bytes as the same run file with {@code file://} URIs for
  * the inputs and the output folder, and its manifest names the URIs with the same SHA-256 as the
- * local files. Outputs on {@code hdfs://} are refused with a message (see CityJob.outputFolder).
+ * local files. With the output folder on HDFS too, the published folder holds the bytes of a local
+ * run (see OutputStore).
  */
 class HdfsInputTest {
     static final Path DEMO_DIR = ClusterRunTest.DEMO_DIR;
@@ -118,21 +119,118 @@ class HdfsInputTest {
                 + "landcover.tif not found. Fix:"), e.getMessage());
     }
 
+    /** The one-day run file with a programme and a hot-spot block, so every kind of output is written. */
+    static Path fullRunFile(Path file, String base) throws Exception {
+        oneDayRunFile(file, base);
+        Files.writeString(file, Files.readString(file) + """
+                scenarios:
+                  - name: cool-pavements
+                    changes:
+                      - {targets: {materials: [asphalt_aged]}, set: {albedo: 0.33}, cost_per_m2: 12}
+                hotspots: {statistics: [peak], distance_m: 60, weights: binary, fdr: 0.10}
+                """);
+        return file;
+    }
+
+    /**
+     * Inputs and outputs on HDFS: the run folder appears on HDFS only when complete, and copied back
+     * it holds the same files with the same bytes as the same run written to a local folder (maps,
+     * Parquet tables, comparison, hot spots, map pictures); the manifests differ only in input
+     * locations and timings.
+     */
     @Test
-    void outputOnHdfsIsRefusedWithAFix() throws Exception {
-        Path rf = oneDayRunFile(dir.resolve("out-hdfs.yaml"), root);
+    void outputsOnHdfsGiveTheBytesOfALocalRun() throws Exception {
+        Path local = dir.resolve("full-local");
+        run(fullRunFile(dir.resolve("full-local.yaml"), DEMO_DIR.toUri().toString()), local, true);
+        String target = root + "runs/full";
+        run(fullRunFile(dir.resolve("full-hdfs.yaml"), root), Path.of(target), true);
+
+        FileSystem fs = hdfs.getFileSystem();
+        // Published once, nothing left beside it.
+        List<String> beside = new java.util.ArrayList<>();
+        for (var st : fs.listStatus(new org.apache.hadoop.fs.Path(root + "runs"))) {
+            beside.add(st.getPath().getName());
+        }
+        assertEquals(List.of("full"), beside);
+        Path back = dir.resolve("full-back");
+        fs.copyToLocalFile(false, new org.apache.hadoop.fs.Path(target), new org.apache.hadoop.fs.Path(back.toUri()), true);
+
+        List<String> files = ClusterRunTest.tree(local);
+        assertEquals(files, ClusterRunTest.tree(back));
+        assertTrue(files.contains("comparison/ranking.csv") && files.contains("report.html")
+                && files.stream().anyMatch(f -> f.startsWith("hotspots/")) && files.contains("tables/cells/scenario=baseline/"
+                + "part-00000.snappy.parquet"), files.toString());
+        for (String f : files) {
+            if (f.endsWith("manifest.json") || f.equals("report.html")) {
+                continue; // input locations differ (file:// and hdfs://); checked below
+            }
+            assertArrayEquals(Files.readAllBytes(local.resolve(f)), Files.readAllBytes(back.resolve(f)), f);
+        }
+        ObjectMapper om = new ObjectMapper();
+        ObjectNode a = (ObjectNode) om.readTree(local.resolve("manifest.json").toFile());
+        ObjectNode b = (ObjectNode) om.readTree(back.resolve("manifest.json").toFile());
+        for (ObjectNode n : List.of(a, b)) {
+            n.remove("timing");
+            n.remove("inputs");
+            n.remove("run_file");
+        }
+        assertEquals(a, b);
+        assertTrue(Files.readString(back.resolve("report.html")).contains("not air temperature"));
+    }
+
+    @Test
+    void aFailedRunLeavesNothingOnHdfs() throws Exception {
+        String target = root + "runs-failed/x";
+        Path rf = oneDayRunFile(dir.resolve("failing.yaml"), root);
+        SparkSession s = SparkSessions.get(null, 2);
+        try {
+            RuntimeException e = org.junit.jupiter.api.Assertions.assertThrows(RuntimeException.class,
+                    () -> CityJob.run(s, RunPreparer.prepare(RunFileReader.read(rf)),
+                            new CityJob.Options(Path.of(target), null, false, true, 2, false, folder -> {
+                                throw new IllegalStateException("stop before publishing");
+                            }), new PrintStream(new ByteArrayOutputStream())));
+            assertEquals("stop before publishing", e.getMessage());
+        } finally {
+            s.stop();
+        }
+        FileSystem fs = hdfs.getFileSystem();
+        org.apache.hadoop.fs.Path parent = new org.apache.hadoop.fs.Path(root + "runs-failed");
+        assertTrue(!fs.exists(parent) || fs.listStatus(parent).length == 0, "left on HDFS: "
+                + (fs.exists(parent) ? List.of(fs.listStatus(parent)) : List.of()));
+    }
+
+    @Test
+    void anExistingHdfsOutputNeedsReplaceAndResumeIsRefused() throws Exception {
+        FileSystem fs = hdfs.getFileSystem();
+        fs.mkdirs(new org.apache.hadoop.fs.Path(root + "runs-taken/x"));
+        Path rf = oneDayRunFile(dir.resolve("taken.yaml"), root);
         UserInputException e = org.junit.jupiter.api.Assertions.assertThrows(UserInputException.class,
-                () -> run(rf, Path.of(root + "runs/x")));
-        assertTrue(e.getMessage().startsWith("--out " + root + "runs/x: outputs are written to a local folder"),
-                e.getMessage());
-        assertTrue(e.getMessage().contains("Fix: "), e.getMessage());
+                () -> run(rf, Path.of(root + "runs-taken/x"), false));
+        assertTrue(e.getMessage().equals("--out " + root + "runs-taken/x already exists. Fix: choose another --out "
+                + "folder or add --replace to overwrite it"), e.getMessage());
+        SparkSession s = SparkSessions.get(null, 2);
+        try {
+            UserInputException r = org.junit.jupiter.api.Assertions.assertThrows(UserInputException.class,
+                    () -> CityJob.run(s, RunPreparer.prepare(RunFileReader.read(rf)),
+                            new CityJob.Options(Path.of(root + "runs-taken/x"), null, false, true, 2, true),
+                            new PrintStream(new ByteArrayOutputStream())));
+            assertTrue(r.getMessage().contains("--resume") && r.getMessage().contains("Fix: "), r.getMessage());
+        } finally {
+            s.stop();
+        }
     }
 
     /** Runs on a session of its own; {@code out} as a command line's path conversion gives it. */
     static Path run(Path runFile, Path out) {
+        return run(runFile, out, false);
+    }
+
+    /** As {@link #run(Path, Path)}, with the report written into the folder before it is published. */
+    static Path run(Path runFile, Path out, boolean report) {
         SparkSession s = SparkSessions.get(null, 2);
         try {
-            CityJob.run(s, RunPreparer.prepare(RunFileReader.read(runFile)), new CityJob.Options(out, null, false, true, 2),
+            CityJob.run(s, RunPreparer.prepare(RunFileReader.read(runFile)), new CityJob.Options(out, null, false, true, 2,
+                    false, report ? org.thermotile.jobs.report.RunReport::write : null),
                     new PrintStream(new ByteArrayOutputStream()));
         } finally {
             s.stop();
