@@ -27,6 +27,7 @@ final class Manifest {
         root.put("name", p.run().name());
         if (p.period() != null) {
             root.put("period", p.period());   // one period of a run over several: see ../../manifest.json
+            root.put("run_folder", "../..");  // what "outputs" and "partitions" are relative to
         }
         ObjectNode inputs = root.putObject("inputs");
         for (Map.Entry<String, String> e : p.inputFiles().entrySet()) {
@@ -60,13 +61,15 @@ final class Manifest {
         p.codeCounts().forEach((k, n) -> codes.put(Integer.toString(k), n));
         var outs = root.putArray("outputs");
         s.maps().forEach(outs::add);
-        outs.add("tables/cells");
-        outs.add("tables/material_hours");
+        // Relative to the run folder (for one period of several: two levels up, its tables' partition).
+        String part = p.period() == null ? "" : "/period=" + p.period();
+        outs.add("tables/cells" + part);
+        outs.add("tables/material_hours" + part);
         if (!p.districtNames().isEmpty()) {
-            outs.add("tables/district_hours");
+            outs.add("tables/district_hours" + part);
         }
         if (p.hourlyEpochSeconds().length > 0) {
-            outs.add("tables/cell_hours");
+            outs.add("tables/cell_hours" + part);
         }
         ObjectNode scen = root.putObject("scenarios");
         scen.put("cell_area_m2", p.grid().pixelAreaM2());

@@ -99,9 +99,10 @@ public final class RunFolder {
                     + FIX_RERUN.formatted(dir));
         }
         List<String> missing = new ArrayList<>();
+        Path base = org.thermotile.jobs.io.RunLayout.of(dir).root();   // the run folder the outputs are listed in
         for (JsonNode o : m.path("outputs")) {
             String rel = o.asText();
-            if (!Files.exists(dir.resolve(rel))) {
+            if (!Files.exists(base.resolve(rel))) {
                 missing.add(rel);
             }
         }

@@ -79,6 +79,13 @@ class PeriodSweepTest {
     static void runOnce() throws Exception {
         spark = SparkSessions.get(null, 2);
         in = dir.resolve("in");
+        writeInputs(in);
+        out = dir.resolve("sweep");
+        run(in.resolve("sweep.yaml"), out, false);
+    }
+
+    /** The test city, the demo's weather, a 3 K warmer copy of it and the sweep's run file, in {@code in}. */
+    static void writeInputs(Path in) throws Exception {
         CityFixture.write(in, 64, "");
         // The demo's invented hot week, and the same week 3 K warmer (air temperature column only).
         Path demo = Path.of("..", "data-samples", "riverside", "weather.csv");
@@ -95,8 +102,6 @@ class PeriodSweepTest {
         }
         Files.writeString(in.resolve("weather-warm.csv"), warm.toString());
         Files.writeString(in.resolve("sweep.yaml"), runFile("weather.csv", PERIODS));
-        out = dir.resolve("sweep");
-        run(in.resolve("sweep.yaml"), out, false);
     }
 
     @AfterAll
