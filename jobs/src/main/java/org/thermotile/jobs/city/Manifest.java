@@ -121,6 +121,16 @@ final class Manifest {
         PreparedRun first = periods.get(0);
         root.put("format", "thermotile-run-manifest/1");
         root.put("name", first.run().name());
+        ObjectNode v = root.putObject("versions");
+        v.put("thermotile", version());
+        v.put("java", System.getProperty("java.version"));
+        v.put("spark", org.apache.spark.package$.MODULE$.SPARK_VERSION());
+        ObjectNode grid = root.putObject("grid");
+        grid.put("width", first.grid().width());
+        grid.put("height", first.grid().height());
+        grid.put("epsg", first.grid().epsg());
+        grid.put("pixel_m", first.grid().pixelWidth());
+        grid.put("tiles", first.tiles().size());
         var ps = root.putArray("periods");
         for (int i = 0; i < periods.size(); i++) {
             PreparedRun p = periods.get(i);

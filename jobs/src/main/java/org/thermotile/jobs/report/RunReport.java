@@ -132,15 +132,15 @@ public final class RunReport {
         body.append("<p>Each period is a complete run of the baseline and every scenario with its own weather; "
                 + "its report, maps and comparison are in its folder. The tables hold every period in one dataset "
                 + "per table, partitioned by period and scenario (<code>tables/cells/period=NAME/scenario=NAME/</code>).</p>\n");
-        body.append("<table>\n<thead><tr><th>period</th><th>from</th><th>to</th><th>weather</th><th class=\"n\">"
+        body.append("<table>\n<thead><tr><th>period</th><th>dates (local)</th><th>weather</th><th class=\"n\">"
                 + "counted hours</th><th>report</th></tr></thead>\n<tbody>\n");
         for (JsonNode p : manifest.path("periods")) {
             String folder = p.path("folder").asText();
             JsonNode w = p.path("weather");
             String weather = w.isObject() ? fileName(w.path("location").asText()) : w.asText();
             body.append("<tr><td>").append(Html.esc(p.path("name").asText())).append("</td><td>")
-                    .append(Html.esc(p.path("start").asText())).append("</td><td>")
-                    .append(Html.esc(p.path("end").asText())).append(" (exclusive)</td><td><code>")
+                    .append(Html.esc(periodText(p.path("start").asText(), p.path("end").asText())))
+                    .append("</td><td><code>")
                     .append(Html.esc(weather)).append("</code></td><td class=\"n\">")
                     .append(p.path("counted_hours").asInt()).append("</td><td><a href=\"")
                     .append(Html.esc(folder + "/" + FILE)).append("\">").append(Html.esc(folder + "/" + FILE))
@@ -169,8 +169,11 @@ public final class RunReport {
                     }
                     body.append("<tr><td>").append(Html.esc(c[iPeriod])).append("</td><td class=\"n\">")
                             .append(Html.esc(c[iRank])).append("</td><td>").append(Html.esc(c[iScen]))
-                            .append("</td><td class=\"n\">").append(Html.esc(c[iRed])).append("</td><td class=\"n\">")
-                            .append(Html.esc(c[iDh])).append("</td></tr>\n");
+                            .append("</td><td class=\"n\">")
+                            .append(String.format(Locale.ROOT, "%.2f", Double.parseDouble(c[iRed])))
+                            .append("</td><td class=\"n\">")
+                            .append(String.format(Locale.ROOT, "%.3g", Double.parseDouble(c[iDh])))
+                            .append("</td></tr>\n");
                 }
                 body.append("</tbody>\n</table>\n");
             } catch (IOException | RuntimeException e) {
@@ -215,11 +218,22 @@ public final class RunReport {
     }
 
     private String period() {
+        JsonNode ps = manifest.path("periods");
+        if (ps.isArray() && ps.size() > 0) {
+            return ps.size() + " periods, " + periodText(ps.get(0).path("start").asText(""),
+                    ps.get(ps.size() - 1).path("end").asText(""));
+        }
         JsonNode p = manifest.path("run_file").path("period");
         if (p.isMissingNode()) {
             return "";
         }
         return periodText(p.path("start").asText(""), p.path("end").asText(""));
+    }
+
+    /** The dates, after the period's name for one period of a run over several. */
+    private String periodLabel() {
+        String name = manifest.path("period").asText("");
+        return (name.isEmpty() ? "" : "period " + name + ", ") + period();
     }
 
     /**
@@ -251,7 +265,7 @@ public final class RunReport {
 
     private String subtitleText() {
         JsonNode g = manifest.path("grid");
-        return runName() + " · " + period() + " · " + g.path("width").asInt() + " × " + g.path("height").asInt()
+        return runName() + " · " + periodLabel() + " · " + g.path("width").asInt() + " × " + g.path("height").asInt()
                 + " cells of " + num(g.path("pixel_m").asDouble(), 1) + " m";
     }
 
@@ -933,7 +947,7 @@ public final class RunReport {
                 .append("<title>").append(Html.esc(runName())).append(" · thermotile run report</title>\n")
                 .append("<style>\n").append(CSS).append("</style>\n</head>\n<body>\n<header>\n<h1>")
                 .append(Html.esc(runName())).append("</h1>\n<p class=\"sub\">Urban surface temperatures, ")
-                .append(Html.esc(period())).append(" · thermotile ")
+                .append(Html.esc(periodLabel())).append(" · thermotile ")
                 .append(Html.esc(manifest.path("versions").path("thermotile").asText("")))
                 .append("</p>\n<nav>");
         for (String[] n : nav) {
