@@ -59,7 +59,10 @@ public final class InputStaging {
             }
             fs.copyToLocalFile(false, src, new org.apache.hadoop.fs.Path(target.toUri()), true);
             return target;
-        } catch (IOException e) {
+        } catch (IOException | RuntimeException e) {   // a missing connector class comes as a RuntimeException
+            if (e instanceof UserInputException u) {
+                throw u;
+            }
             throw new UserInputException(key + ": " + location + " cannot be read: " + e.getMessage()
                     + ". Fix: check the URI, that the file system is reachable from the driver and, for s3a://, "
                     + "that the S3 connector (hadoop-aws) is on the class path", e);

@@ -120,7 +120,7 @@ public final class OutputStore {
     static boolean exists(String uri) {
         try {
             return fileSystem(uri).exists(new org.apache.hadoop.fs.Path(uri));
-        } catch (IOException e) {
+        } catch (IOException | RuntimeException e) {   // Hadoop wraps a missing connector class in a RuntimeException
             throw unreachable(uri, e);
         }
     }
@@ -161,7 +161,7 @@ public final class OutputStore {
         return FileSystem.get(URI.create(uri), InputStaging.configuration());
     }
 
-    private static UserInputException unreachable(String uri, IOException e) {
+    private static UserInputException unreachable(String uri, Exception e) {
         return new UserInputException("--out " + uri + ": the file system cannot be reached (" + e.getMessage()
                 + "). Fix: check the URI, that the name node is up and reachable from the driver, and for s3a:// "
                 + "that the S3 connector (hadoop-aws) is on the class path", e);

@@ -220,6 +220,23 @@ class HdfsInputTest {
         }
     }
 
+    /** A Hadoop scheme whose connector is not on the class path is named, with the fix, for inputs and outputs. */
+    @Test
+    void aMissingConnectorIsAClearErrorForInputsAndOutputs() throws Exception {
+        Path rf = oneDayRunFile(dir.resolve("s3.yaml"), DEMO_DIR.toUri().toString());
+        UserInputException out = org.junit.jupiter.api.Assertions.assertThrows(UserInputException.class,
+                () -> CityJob.run(null, RunPreparer.prepare(RunFileReader.read(rf)),
+                        new CityJob.Options(Path.of("s3a://bucket/runs/x"), null, false, true, 2),
+                        new PrintStream(new ByteArrayOutputStream())));
+        assertTrue(out.getMessage().startsWith("--out s3a://bucket/runs/x: the file system cannot be reached")
+                && out.getMessage().contains("hadoop-aws"), out.getMessage());
+        Path in = oneDayRunFile(dir.resolve("s3-in.yaml"), "s3a://bucket/riverside/");
+        UserInputException e = org.junit.jupiter.api.Assertions.assertThrows(UserInputException.class,
+                () -> RunPreparer.prepare(RunFileReader.read(in)));
+        assertTrue(e.getMessage().startsWith("inputs.land_cover: s3a://bucket/riverside/landcover.tif cannot be read")
+                && e.getMessage().contains("hadoop-aws"), e.getMessage());
+    }
+
     /** Runs on a session of its own; {@code out} as a command line's path conversion gives it. */
     static Path run(Path runFile, Path out) {
         return run(runFile, out, false);
