@@ -1,6 +1,5 @@
 package org.thermotile.jobs.city;
 
-import org.thermotile.jobs.io.RunLayout;
 import java.io.IOException;
 import java.io.PrintStream;
 import java.io.UncheckedIOException;
@@ -17,6 +16,7 @@ import org.apache.spark.sql.SparkSession;
 import org.apache.spark.storage.StorageLevel;
 import org.thermotile.jobs.cli.UserInputException;
 import org.thermotile.jobs.io.Folders;
+import org.thermotile.jobs.io.RunLayout;
 import org.thermotile.model.stats.GroupHourStats;
 
 /**

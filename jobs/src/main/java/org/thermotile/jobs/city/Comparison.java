@@ -1,6 +1,5 @@
 package org.thermotile.jobs.city;
 
-import org.thermotile.jobs.io.RunLayout;
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import java.io.IOException;
@@ -20,6 +19,7 @@ import org.apache.spark.sql.SparkSession;
 import org.apache.spark.sql.types.DataTypes;
 import org.apache.spark.sql.types.StructType;
 import org.thermotile.jobs.cli.UserInputException;
+import org.thermotile.jobs.io.RunLayout;
 import org.thermotile.jobs.io.raster.GeoTiffReader;
 import org.thermotile.jobs.io.raster.GeoTiffWriter;
 import org.thermotile.jobs.io.raster.RasterGrid;

@@ -1,6 +1,5 @@
 package org.thermotile.jobs.city;
 
-import org.thermotile.jobs.io.RunLayout;
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import com.fasterxml.jackson.databind.node.ObjectNode;
@@ -18,6 +17,7 @@ import java.util.Map;
 import java.util.TreeMap;
 import java.util.stream.Stream;
 import org.thermotile.jobs.config.Scenario;
+import org.thermotile.jobs.io.RunLayout;
 
 /**
  * The per-variant partitions of a run folder (baseline and each scenario: its maps and its
