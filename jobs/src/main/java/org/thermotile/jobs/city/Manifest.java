@@ -36,16 +36,7 @@ final class Manifest {
             i.put("sha256", sha256(RunPreparer.localPath(e.getValue(), "inputs." + e.getKey())));
         }
         root.set("run_file", p.run().toTree());
-        ObjectNode v = root.putObject("versions");
-        v.put("thermotile", version());
-        v.put("java", System.getProperty("java.version"));
-        v.put("spark", org.apache.spark.package$.MODULE$.SPARK_VERSION());
-        ObjectNode grid = root.putObject("grid");
-        grid.put("width", p.grid().width());
-        grid.put("height", p.grid().height());
-        grid.put("epsg", p.grid().epsg());
-        grid.put("pixel_m", p.grid().pixelWidth());
-        grid.put("tiles", p.tiles().size());
+        putVersionsAndGrid(root, p);
         ObjectNode sim = root.putObject("simulation");
         sim.put("cells", s.cells());
         sim.put("hours", p.spec().forcing().hours() - 1);
@@ -103,9 +94,7 @@ final class Manifest {
         timing.put("computed_cell_hours", s.cellHours());
         var kept = timing.putArray("resumed_partitions");
         reused.forEach(kept::add);
-        root.put("caution", "Surface temperature is not air temperature nor a heat-health index. "
-                + "Results are estimates for comparing options; defer to local building codes and "
-                + "licensed professionals.");
+        root.put("caution", CAUTION);
         Files.writeString(file, om.writeValueAsString(root) + "\n");
     }
 
@@ -121,16 +110,7 @@ final class Manifest {
         PreparedRun first = periods.get(0);
         root.put("format", "thermotile-run-manifest/1");
         root.put("name", first.run().name());
-        ObjectNode v = root.putObject("versions");
-        v.put("thermotile", version());
-        v.put("java", System.getProperty("java.version"));
-        v.put("spark", org.apache.spark.package$.MODULE$.SPARK_VERSION());
-        ObjectNode grid = root.putObject("grid");
-        grid.put("width", first.grid().width());
-        grid.put("height", first.grid().height());
-        grid.put("epsg", first.grid().epsg());
-        grid.put("pixel_m", first.grid().pixelWidth());
-        grid.put("tiles", first.tiles().size());
+        putVersionsAndGrid(root, first);
         var ps = root.putArray("periods");
         for (int i = 0; i < periods.size(); i++) {
             PreparedRun p = periods.get(i);
@@ -169,10 +149,25 @@ final class Manifest {
         ObjectNode timing = root.putObject("timing");
         timing.put("wall_seconds", round(all.wallSeconds()));
         timing.put("computed_cell_hours", all.cellHours());
-        root.put("caution", "Surface temperature is not air temperature nor a heat-health index. "
-                + "Results are estimates for comparing options; defer to local building codes and "
-                + "licensed professionals.");
+        root.put("caution", CAUTION);
         Files.writeString(file, om.writeValueAsString(root) + "\n");
+    }
+
+    static final String CAUTION = "Surface temperature is not air temperature nor a heat-health index. "
+            + "Results are estimates for comparing options; defer to local building codes and licensed professionals.";
+
+    /** The "versions" and "grid" blocks every manifest has. */
+    private static void putVersionsAndGrid(ObjectNode root, PreparedRun p) {
+        ObjectNode v = root.putObject("versions");
+        v.put("thermotile", version());
+        v.put("java", System.getProperty("java.version"));
+        v.put("spark", org.apache.spark.package$.MODULE$.SPARK_VERSION());
+        ObjectNode grid = root.putObject("grid");
+        grid.put("width", p.grid().width());
+        grid.put("height", p.grid().height());
+        grid.put("epsg", p.grid().epsg());
+        grid.put("pixel_m", p.grid().pixelWidth());
+        grid.put("tiles", p.tiles().size());
     }
 
     static double round(double v) {

@@ -53,12 +53,21 @@ public final class RunPreparer {
      * adoption cuts). A sweep larger than its {@code max_scenarios} needs {@code confirmSweep}.
      */
     public static PreparedRun prepare(RunFile run, boolean confirmSweep) {
+        checkSweepSize(run, confirmSweep);
+        return prepare(run, readCity(run));
+    }
+
+    private static void checkSweepSize(RunFile run, boolean confirmSweep) {
         if (run.scenarios().size() > run.sweepMax() && !confirmSweep) {
             throw new UserInputException(run.source() + ": the scenarios and sweep make " + run.scenarios().size()
                     + " scenarios, more than sweep.max_scenarios = " + run.sweepMax() + ". Fix: narrow the sweep's "
                     + "axes, raise max_scenarios, or confirm with --confirm-sweep");
         }
-        PreparedRun p = prepareInputs(run);
+    }
+
+    /** {@link #prepare(RunFile, boolean)} with the city already read (the sweep's size checked). */
+    private static PreparedRun prepare(RunFile run, City city) {
+        PreparedRun p = withWeather(run, city);
         HotspotsBlock.of(run, p.grid().pixelWidth()); // checked now, used after the simulation
         return p.withPlan(ScenarioPlanner.plan(p, run.scenarios()));
     }
@@ -72,12 +81,18 @@ public final class RunPreparer {
         if (!run.hasPeriods()) {
             return List.of(prepare(run, confirmSweep));
         }
+        checkSweepSize(run, confirmSweep);
         List<PreparedRun> out = new ArrayList<>();
+        City city = null;
         for (RunFile.NamedPeriod np : run.periods()) {
             try {
-                // The scenario plan (treated cells, roofs, costs) depends on the city alone: made once, shared.
-                PreparedRun p = out.isEmpty() ? prepare(run.forPeriod(np), confirmSweep)
-                        : prepareInputs(run.forPeriod(np)).withPlan(out.get(0).plan());
+                // The city (rasters, classes, materials, districts) is read once, and the scenario
+                // plan (treated cells, roofs, costs), which depends on the city alone, made once.
+                RunFile r = run.forPeriod(np);
+                if (city == null) {
+                    city = readCity(r);
+                }
+                PreparedRun p = out.isEmpty() ? prepare(r, city) : withWeather(r, city).withPlan(out.get(0).plan());
                 out.add(p.withPeriod(np.name()));
             } catch (UserInputException | IllegalArgumentException e) {
                 throw new UserInputException("sweep.periods '" + np.name() + "': " + e.getMessage(), e);
@@ -93,6 +108,21 @@ public final class RunPreparer {
 
     /** Reads and checks every input (scenarios not yet resolved). */
     static PreparedRun prepareInputs(RunFile run) {
+        return withWeather(run, readCity(run));
+    }
+
+    /**
+     * What the inputs say about the city, whatever the weather: read and checked once, shared by
+     * the periods of a weather axis.
+     */
+    private record City(Path landCover, RasterGrid grid, Map<Integer, Long> counts, Map<Integer, Long> fallback,
+            List<String> notes, Map<String, String> inputs, Material[] palette, List<String> labels, int[] lut,
+            List<org.locationtech.jts.geom.Geometry> districts, List<String> districtNames,
+            Map<String, Material> known, GeometryBlock geometry, String heights, int tileSize) {
+    }
+
+    /** Reads and checks the land cover, heights, districts, materials and class table. */
+    private static City readCity(RunFile run) {
         List<String> notes = new ArrayList<>();
         Map<String, String> inputs = new LinkedHashMap<>();
         RunFile.Inputs in = run.inputs();
@@ -209,6 +239,20 @@ public final class RunPreparer {
             lut[code] = idx;
         }
 
+        return new City(landCover, grid, counts, fallback, List.copyOf(notes), inputs, palette.toArray(new Material[0]),
+                List.copyOf(labels), lut, districts == null ? List.of() : districts.geometries(),
+                districts == null ? List.of() : districts.districts().stream().map(Districts.District::name).toList(),
+                Map.copyOf(known), geometry,
+                in.heights() == null ? null : location(in.heights(), localPath(in.heights(), "inputs.heights")),
+                tileSize);
+    }
+
+    /** The city {@code c} under the run file's weather and period: forcing, counted hours, settings. */
+    private static PreparedRun withWeather(RunFile run, City c) {
+        List<String> notes = new ArrayList<>(c.notes());
+        Map<String, String> inputs = new LinkedHashMap<>(c.inputs());
+        RasterGrid grid = c.grid();
+        Path landCover = c.landCover();
         // Site and weather.
         double[] centre = centreLatLon(grid, landCover);
         Site site = run.site().toSite(centre[0], centre[1]);
@@ -279,14 +323,10 @@ public final class RunPreparer {
         TileSimulation.Settings settings = new TileSimulation.Settings(run.physics().timestepMinutes(),
                 convection, deepK, firstSample, run.outputs().thresholdK(),
                 hourlyIdx.stream().mapToInt(Integer::intValue).toArray());
-        TileJobSpec spec = new TileJobSpec(location(in.landCover(), landCover), grid, palette.toArray(new Material[0]), lut,
-                districts == null ? List.of() : districts.geometries(), used, settings,
-                in.heights() == null ? null : location(in.heights(), localPath(in.heights(), "inputs.heights")),
-                geometry);
-        List<String> districtNames = districts == null ? List.of()
-                : districts.districts().stream().map(Districts.District::name).toList();
-        return new PreparedRun(run, grid, spec, TileSpec.plan(grid.width(), grid.height(), tileSize),
-                List.copyOf(labels), districtNames, Map.copyOf(known), counts, fallback, inputs,
+        TileJobSpec spec = new TileJobSpec(c.inputs().get("land_cover"), grid, c.palette(), c.lut(), c.districts(), used,
+                settings, c.heights(), c.geometry());
+        return new PreparedRun(run, grid, spec, TileSpec.plan(grid.width(), grid.height(), c.tileSize()),
+                c.labels(), c.districtNames(), c.known(), c.counts(), c.fallback(), inputs,
                 samples.stream().mapToLong(Long::longValue).toArray(),
                 hourlyTimes.stream().mapToLong(Long::longValue).toArray(), notes, null, null);
     }

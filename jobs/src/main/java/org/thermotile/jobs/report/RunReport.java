@@ -147,38 +147,36 @@ public final class RunReport {
                     .append("</a></td></tr>\n");
         }
         body.append("</tbody>\n</table>\n");
-        Path ranking = dir.resolve("comparison").resolve("ranking_by_period.csv");
-        if (Files.isRegularFile(ranking)) {
+        Path ranking = dir.resolve("comparison").resolve("ranking_by_period.parquet");
+        if (Files.exists(ranking)) {
             section("comparison", "Ranking across periods");
             body.append("<p>Whole grid; rank 1 is best in its period. Peak reduction is baseline minus scenario "
                     + "(positive = cooler). Full tables: <code>comparison/ranking_by_period.csv</code> and "
                     + "<code>.parquet</code>.</p>\n");
             try {
-                List<String> lines = Files.readAllLines(ranking, StandardCharsets.UTF_8);
-                List<String> head = List.of(lines.get(0).split(",", -1));
-                int iPeriod = head.indexOf("period"), iScen = head.indexOf("scenario"), iDist = head.indexOf("district");
-                int iRank = head.indexOf("rank"), iRed = head.indexOf("peak_reduction_mean_c");
-                int iDh = head.indexOf("degree_hours_avoided_k_h_m2");
+                Table t = Table.readParquet(ranking);
+                int iPeriod = t.require("period", ranking), iScen = t.require("scenario", ranking);
+                int iDist = t.require("district", ranking), iRank = t.require("rank", ranking);
+                int iRed = t.require("peak_reduction_mean_c", ranking);
+                int iDh = t.require("degree_hours_avoided_k_h_m2", ranking);
                 body.append("<table>\n<thead><tr><th>period</th><th class=\"n\">rank</th><th>scenario</th>"
                         + "<th class=\"n\">mean peak reduction °C</th><th class=\"n\">degree-hours avoided K·h·m²</th>"
                         + "</tr></thead>\n<tbody>\n");
-                for (String line : lines.subList(1, lines.size())) {
-                    String[] c = line.split(",", -1);
-                    if (c.length != head.size() || !c[iDist].equals("(all)")) {
+                for (Object[] r : t.rows()) {
+                    if (!"(all)".equals(String.valueOf(r[iDist]))) {
                         continue;
                     }
-                    body.append("<tr><td>").append(Html.esc(c[iPeriod])).append("</td><td class=\"n\">")
-                            .append(Html.esc(c[iRank])).append("</td><td>").append(Html.esc(c[iScen]))
+                    body.append("<tr><td>").append(Html.esc(String.valueOf(r[iPeriod]))).append("</td><td class=\"n\">")
+                            .append(r[iRank]).append("</td><td>").append(Html.esc(String.valueOf(r[iScen])))
                             .append("</td><td class=\"n\">")
-                            .append(String.format(Locale.ROOT, "%.2f", Double.parseDouble(c[iRed])))
+                            .append(String.format(Locale.ROOT, "%.2f", Table.number(r[iRed])))
                             .append("</td><td class=\"n\">")
-                            .append(String.format(Locale.ROOT, "%.3g", Double.parseDouble(c[iDh])))
+                            .append(String.format(Locale.ROOT, "%.3g", Table.number(r[iDh])))
                             .append("</td></tr>\n");
                 }
                 body.append("</tbody>\n</table>\n");
-            } catch (IOException | RuntimeException e) {
-                body.append("<p class=\"missing\">").append(Html.esc(ranking + " cannot be read: " + e.getMessage()))
-                        .append("</p>\n");
+            } catch (ReportException e) {
+                body.append("<p class=\"missing\">").append(Html.esc(e.getMessage())).append("</p>\n");
             }
         }
         filesSection();
