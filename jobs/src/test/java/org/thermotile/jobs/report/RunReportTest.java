@@ -262,7 +262,7 @@ class RunReportTest {
 
     /** Side-by-side programme maps share one colour range; the delta map is centred at zero. */
     @Test
-    void scenarioMapsShareAScaleAndDeltasAreCentredAtZero() {
+    void scenarioMapsShareAScaleAndDeltasAreCentredAtZero() throws IOException {
         RunReport.MapEntry base = entry(fullReport, "scenarios/cool_roofs/baseline_peak");
         RunReport.MapEntry prog = entry(fullReport, "scenarios/cool_roofs/peak");
         assertEquals(base.figure().colourLow(), prog.figure().colourLow(), 0);
@@ -272,9 +272,16 @@ class RunReportTest {
         assertEquals(-delta.figure().colourLow(), delta.figure().colourHigh(), 0, "symmetric limits");
         assertEquals(Math.max(Math.abs(delta.figure().dataMin()), Math.abs(delta.figure().dataMax())),
                 delta.figure().colourHigh(), 0);
-        // the bar's middle row is the diverging ramp's centre colour (value 0)
+        // the bar's middle row is the diverging ramp's centre colour (value 0): row yy of the bar is
+        // drawn with t = 1 - yy / (height - 1), so the row nearest t = 0.5 carries the ramp's centre
         var bar = delta.figure().legendBar();
-        assertNotNull(bar);
+        BufferedImage img = png(delta);
+        int mid = Math.round((bar.height - 1) / 2f);
+        double tMid = 1 - (double) mid / (bar.height - 1);
+        assertEquals(0.5, tMid, 0.5 / (bar.height - 1) + 1e-12, "the middle row is the ramp's centre");
+        assertEquals(ColourRamp.FULCRUM.rgb(tMid), img.getRGB(bar.x + bar.width / 2, bar.y + mid) & 0xffffff,
+                "middle of the delta legend bar");
+        assertTrue(bar.height > 10, "a legend bar tall enough to read");
     }
 
     // ------------------------------------------------------------------------ self-contained
