@@ -38,7 +38,7 @@ final class Partitions {
     static Map<String, String> keys(PreparedRun p) {
         ObjectNode tree = p.run().toTree();
         // Inputs count by content (their hashes below), not by where they are read from.
-        tree.remove(List.of("scenarios", "sweep", "hotspots", "report", "inputs"));
+        tree.remove(List.of("scenarios", "sweep", "hotspots", "inputs"));
         if (tree.get("weather") instanceof ObjectNode w) {
             w.remove("file");
         }

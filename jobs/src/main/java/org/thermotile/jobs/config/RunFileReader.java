@@ -44,7 +44,7 @@ import org.thermotile.jobs.config.RunFile.MapKind;
  */
 public final class RunFileReader {
     /** Top-level sections kept as raw trees for later features; accepted without checks. */
-    public static final List<String> RESERVED_KEYS = List.of("scenarios", "sweep", "hotspots", "report", "geometry");
+    public static final List<String> RESERVED_KEYS = List.of("scenarios", "sweep", "hotspots", "geometry");
     /** Named wind correlations for the convective coefficient. */
     public static final List<String> CONVECTION_MODELS = List.of("mcadams");
 

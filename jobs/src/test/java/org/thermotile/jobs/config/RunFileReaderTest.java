@@ -148,13 +148,20 @@ class RunFileReaderTest {
     @Test
     void reservedSectionsAreKeptRaw() {
         RunFile rf = parse(MINIMAL + "scenarios:\n  - {name: cool-roofs, changes: [{targets: {codes: [1]}, set: {albedo: 0.7}}]}\n"
-                + "report: {title: x}\n");
+                + "hotspots: {statistic: peak}\n");
         assertEquals(2, rf.reserved().size());
         JsonNode sc = rf.reserved("scenarios");
         assertEquals("cool-roofs", sc.get(0).get("name").asText());
         // The record is immutable: changing a returned tree does not change the run file.
         ((com.fasterxml.jackson.databind.node.ObjectNode) sc.get(0)).put("name", "changed");
         assertEquals("cool-roofs", rf.reserved("scenarios").get(0).get("name").asText());
+    }
+
+    /** {@code report:} was once accepted and never read; a key nothing reads is now refused. */
+    @Test
+    void aSectionNothingReadsIsRefused() {
+        RunFileException e = assertThrows(RunFileException.class, () -> parse(MINIMAL + "report: {title: x}\n"));
+        assertTrue(e.getMessage().contains("report"), e.getMessage());
     }
 
     @Test
