@@ -6,7 +6,6 @@ import java.io.IOException;
 import java.nio.file.Files;
 import java.nio.file.NoSuchFileException;
 import java.nio.file.Path;
-import java.util.ArrayList;
 import java.util.Arrays;
 import java.util.LinkedHashMap;
 import java.util.List;
@@ -340,12 +339,5 @@ public final class FootprintRasteriser {
                     + "Fix: close the ring");
         }
         return gf.createLinearRing(cs);
-    }
-
-    /** Names of the reasons, for messages: "missing 2, not numeric 1, …". */
-    static List<String> describe(Map<String, Integer> skipped) {
-        List<String> out = new ArrayList<>();
-        skipped.forEach((k, v) -> out.add(k + " " + v));
-        return out;
     }
 }
