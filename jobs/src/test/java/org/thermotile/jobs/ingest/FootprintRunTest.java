@@ -102,6 +102,24 @@ class FootprintRunTest {
         assertTrue(msg.contains("height_m, levels, name, roof") && msg.contains("Did you mean 'height_m'"), msg);
     }
 
+    /**
+     * {@code check} on the committed example: the footprints' cells counted by hand from the generator's
+     * rectangles (edges on the 4 m cell edges: 300 + 100 + 600 + 156 + 120 + 500 + 135 + 375 + 100 + 625
+     * cells, plus the 100 cells of the 12 m block outside the 30 m block it overlaps = 3111), the two
+     * features without height, and the mapped weather.
+     */
+    @Test
+    void checkOfTheExampleReportsTheHandCountedCells() {
+        StringWriter out = new StringWriter();
+        CommandLine cl = new CommandLine(new Main());
+        cl.setOut(new PrintWriter(out));
+        assertEquals(0, Main.executeWith(cl, "check", EXAMPLE.resolve("run.yaml").toString()), out.toString());
+        String s = out.toString();
+        assertTrue(s.contains("13 features, 11 rasterised onto 3111 cells"), s);
+        assertTrue(s.contains("{missing=1, not numeric=1, not positive=0, not a polygon=0}"), s);
+        assertTrue(s.contains("air_temperature ← 'Temp (F)' [degF]") && s.contains("wind_speed ← 'Wind km/h' [km/h]"), s);
+    }
+
     @Test
     void anUnknownRoofMaterialNamesTheFeature() throws Exception {
         Path f = dir.resolve("f.geojson");
