@@ -34,10 +34,10 @@ record GeometryBlock(int directions, double searchRadiusM, double minSunElevatio
     /** The geometry settings of {@code run} (null without heights), with the halo for {@code tallestM}. */
     static GeometryBlock of(RunFile run, double cellM, double tallestM) {
         JsonNode n = run.reserved("geometry");
-        if (run.inputs().heights() == null) {
+        if (run.inputs().heights() == null && run.inputs().buildings() == null) {
             if (n != null && !n.isNull()) {
-                throw new UserInputException(run.source() + ": geometry settings need a heights raster. Fix: give "
-                        + "inputs.heights, or drop the geometry block");
+                throw new UserInputException(run.source() + ": geometry settings need a heights raster or building "
+                        + "footprints. Fix: give inputs.heights or inputs.buildings, or drop the geometry block");
             }
             return null;
         }

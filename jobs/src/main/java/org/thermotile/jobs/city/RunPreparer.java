@@ -20,6 +20,9 @@ import org.thermotile.jobs.cli.UserInputException;
 import org.thermotile.jobs.config.ClassTable;
 import org.thermotile.jobs.config.ClassTableReader;
 import org.thermotile.jobs.config.RunFile;
+import org.thermotile.jobs.ingest.FootprintGrid;
+import org.thermotile.jobs.ingest.FootprintRasteriser;
+import org.thermotile.jobs.ingest.WeatherColumns;
 import org.thermotile.jobs.io.MaterialsFile;
 import org.thermotile.jobs.io.districts.Districts;
 import org.thermotile.jobs.io.raster.GeoTiffReader;
@@ -118,7 +121,8 @@ public final class RunPreparer {
     private record City(Path landCover, RasterGrid grid, Map<Integer, Long> counts, Map<Integer, Long> fallback,
             List<String> notes, Map<String, String> inputs, Material[] palette, List<String> labels, int[] lut,
             List<org.locationtech.jts.geom.Geometry> districts, List<String> districtNames,
-            Map<String, Material> known, GeometryBlock geometry, String heights, int tileSize) {
+            Map<String, Material> known, GeometryBlock geometry, String heights, int tileSize, float[] heightGrid,
+            int[] cellPalette) {
     }
 
     /** Reads and checks the land cover, heights, districts, materials and class table. */
@@ -166,6 +170,13 @@ public final class RunPreparer {
                     + ", so there is nothing to simulate. Fix: check the nodata value and the extent");
         }
         double tallest = 0;
+        // With footprints, the whole grid's heights are kept in memory: the raster's (if any), then the
+        // footprints' over them (a cell a footprint covers takes the footprint's height).
+        float[] heightGrid = null;
+        if (in.buildings() != null) {
+            heightGrid = new float[Math.toIntExact(grid.cellCount())];
+            Arrays.fill(heightGrid, Float.NaN);
+        }
         if (in.heights() != null) {
             Path heights = localPath(in.heights(), "inputs.heights");
             inputs.put("heights", location(in.heights(), heights));
@@ -189,6 +200,31 @@ public final class RunPreparer {
                         }
                         tallest = Math.max(tallest, x);
                     }
+                    if (heightGrid != null) {
+                        for (int r = 0; r < t.height(); r++) {
+                            System.arraycopy(v, r * t.width(), heightGrid, (t.row0() + r) * grid.width() + t.col0(),
+                                    t.width());
+                        }
+                    }
+                }
+            }
+        }
+        FootprintRasteriser.Result footprints = null;
+        if (in.buildings() != null) {
+            Path bf = localPath(in.buildings().file(), "inputs.buildings.file");
+            inputs.put("buildings", location(in.buildings().file(), bf));
+            if (Math.abs(grid.pixelWidth() + grid.pixelHeight()) > 1e-9 * grid.pixelWidth()) {
+                throw new UserInputException(landCover + ": cells of " + grid.pixelWidth() + " × " + -grid.pixelHeight()
+                        + " m are not square; footprints are rasterised onto square cells. Fix: resample the land "
+                        + "cover to square cells (gdalwarp -tr)");
+            }
+            footprints = FootprintRasteriser.read(bf, in.buildings(), FootprintGrid.of(grid));
+            notes.add(footprints.note(bf, in.buildings()) + (in.heights() != null
+                    ? "; footprints replace the heights raster where they cover a cell" : ""));
+            for (int i = 0; i < heightGrid.length; i++) {
+                if (footprints.feature()[i] >= 0) {
+                    heightGrid[i] = footprints.heightM()[i];
+                    tallest = Math.max(tallest, heightGrid[i]);
                 }
             }
         }
@@ -238,13 +274,48 @@ public final class RunPreparer {
             }
             lut[code] = idx;
         }
+        int[] cellPalette = null;
+        if (footprints != null && in.buildings().roofMaterialAttribute() != null) {
+            cellPalette = new int[heightGrid.length];
+            Arrays.fill(cellPalette, -1);
+            long roofCells = 0;
+            Map<String, Long> byMaterial = new TreeMap<>();
+            for (int i = 0; i < cellPalette.length; i++) {
+                int f = footprints.feature()[i];
+                String id = f < 0 ? null : footprints.roofMaterial()[f];
+                if (id == null) {
+                    continue;
+                }
+                Integer idx = paletteIndex.get(id);
+                if (idx == null) {
+                    Material m;
+                    try {
+                        m = MaterialLibrary.get(id, known);
+                    } catch (IllegalArgumentException | UserInputException e) {
+                        throw new UserInputException(localPath(in.buildings().file(), "inputs.buildings.file")
+                                + ", features[" + f + "]: " + in.buildings().roofMaterialAttribute() + " = '" + id
+                                + "' is not a material: " + e.getMessage() + ". Fix: use a material id of the library "
+                                + "(thermotile materials) or of inputs.materials", e);
+                    }
+                    idx = palette.size();
+                    palette.add(m);
+                    labels.add(id);
+                    paletteIndex.put(id, idx);
+                }
+                cellPalette[i] = idx;
+                roofCells++;
+                byMaterial.merge(id, 1L, Long::sum);
+            }
+            notes.add("buildings: roof material from '" + in.buildings().roofMaterialAttribute() + "' on " + roofCells
+                    + " cells " + byMaterial + " (cells of footprints without a value keep the land cover's material)");
+        }
 
         return new City(landCover, grid, counts, fallback, List.copyOf(notes), inputs, palette.toArray(new Material[0]),
                 List.copyOf(labels), lut, districts == null ? List.of() : districts.geometries(),
                 districts == null ? List.of() : districts.districts().stream().map(Districts.District::name).toList(),
                 Map.copyOf(known), geometry,
                 in.heights() == null ? null : location(in.heights(), localPath(in.heights(), "inputs.heights")),
-                tileSize);
+                tileSize, heightGrid, cellPalette);
     }
 
     /** The city {@code c} under the run file's weather and period: forcing, counted hours, settings. */
@@ -270,9 +341,12 @@ public final class RunPreparer {
             Path wf = localPath(run.weather().file(), "weather.file");
             inputs.put("weather", location(run.weather().file(), wf));
             WeatherRead read;
+            GapFill gaps = run.weather().fillGapsMaxHours() > 0
+                    ? GapFill.linear(run.weather().fillGapsMaxHours()) : GapFill.none();
             try {
-                read = WeatherCsv.read(wf, run.weather().fillGapsMaxHours() > 0
-                        ? GapFill.linear(run.weather().fillGapsMaxHours()) : GapFill.none());
+                read = run.weather().mapping() != null
+                        ? WeatherColumns.read(wf, run.weather().mapping(), run.source(), site, gaps)
+                        : WeatherCsv.read(wf, gaps);
             } catch (java.io.IOException e) {
                 throw new UserInputException(wf + ": cannot be read: " + e.getMessage(), e);
             }
@@ -324,7 +398,7 @@ public final class RunPreparer {
                 convection, deepK, firstSample, run.outputs().thresholdK(),
                 hourlyIdx.stream().mapToInt(Integer::intValue).toArray());
         TileJobSpec spec = new TileJobSpec(c.inputs().get("land_cover"), grid, c.palette(), c.lut(), c.districts(), used,
-                settings, c.heights(), c.geometry());
+                settings, c.heights(), c.geometry(), c.heightGrid(), c.cellPalette());
         return new PreparedRun(run, grid, spec, TileSpec.plan(grid.width(), grid.height(), c.tileSize()),
                 c.labels(), c.districtNames(), c.known(), c.counts(), c.fallback(), inputs,
                 samples.stream().mapToLong(Long::longValue).toArray(),

@@ -72,9 +72,10 @@ public final class ScenarioPlanner {
             return new Plan(variants, treated, null, null);
         }
         boolean roofs = scenarios.stream().flatMap(s -> s.changes().stream()).anyMatch(c -> c.targets().roofsOnly());
-        if (roofs && spec.heights() == null) {
+        if (roofs && !spec.hasHeights()) {
             throw new UserInputException(p.run().source() + ": a scenario targets roofs only (roofs_only: true), "
-                    + "which needs a heights raster. Fix: give inputs.heights, or drop roofs_only");
+                    + "which needs a heights raster or building footprints. Fix: give inputs.heights or "
+                    + "inputs.buildings, or drop roofs_only");
         }
         GridScan scan = GridScan.of(p);
         for (Scenario sc : scenarios) {
@@ -190,18 +191,25 @@ public final class ScenarioPlanner {
             GridScan g = new GridScan(w * p.grid().height());
             Arrays.fill(g.district, -1);
             // On the driver: the local copies the run's checks read (URIs are staged once).
-            try (GeoTiffReader lc = GeoTiffReader.openSingleBand(RunPreparer.localPath(spec.landCover(), "inputs.land_cover"));
-                    GeoTiffReader hr = spec.heights() == null ? null
-                            : GeoTiffReader.openSingleBand(RunPreparer.localPath(spec.heights(), "inputs.heights"))) {
+            Path localHeights = spec.heights() == null || spec.heightGrid() != null ? null
+                    : RunPreparer.localPath(spec.heights(), "inputs.heights");
+            try (GeoTiffReader lc = GeoTiffReader.openSingleBand(RunPreparer.localPath(spec.landCover(), "inputs.land_cover"))) {
                 for (TileSpec t : p.tiles()) {
                     int[] codes = lc.readIntWindow(t.col0(), t.row0(), t.width(), t.height());
-                    float[] h = hr == null ? null : hr.readFloatWindow(t.col0(), t.row0(), t.width(), t.height());
+                    float[] h = !spec.hasHeights() ? null
+                            : spec.heightsWindow(localHeights, t.col0(), t.row0(), t.width(), t.height());
+                    int[] mapped = new int[codes.length];
+                    for (int i = 0; i < codes.length; i++) {
+                        int c = codes[i];
+                        mapped[i] = c >= 0 && c < spec.codeToPalette().length ? spec.codeToPalette()[c] : -1;
+                    }
+                    spec.applyCellPalette(mapped, t.col0(), t.row0(), t.width());
                     int[] d = spec.districts().isEmpty() ? null
                             : Districts.assign(spec.districts(), p.grid(), t.col0(), t.row0(), t.width(), t.height());
                     for (int i = 0; i < codes.length; i++) {
                         int cell = (t.row0() + i / t.width()) * w + t.col0() + i % t.width();
                         int c = codes[i];
-                        int b = c >= 0 && c < spec.codeToPalette().length ? spec.codeToPalette()[c] : -1;
+                        int b = mapped[i];
                         g.code[cell] = Math.max(0, c);
                         g.base[cell] = b;
                         g.district[cell] = d == null ? -1 : d[i];

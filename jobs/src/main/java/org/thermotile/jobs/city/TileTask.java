@@ -30,12 +30,12 @@ public final class TileTask {
         int r1 = Math.min(spec.grid().height(), tile.row0() + tile.height() + halo);
         float[] h;
         int[] codes;
-        try (GeoTiffReader hr = GeoTiffReader.openSingleBand(landCover(spec.heights()));
-                GeoTiffReader lc = GeoTiffReader.openSingleBand(landCover(spec.landCover()))) {
-            h = hr.readFloatWindow(c0, r0, c1 - c0, r1 - r0);
+        h = spec.heightsWindow(spec.heightGrid() == null ? landCover(spec.heights()) : null, c0, r0, c1 - c0, r1 - r0);
+        try (GeoTiffReader lc = GeoTiffReader.openSingleBand(landCover(spec.landCover()))) {
             codes = lc.readIntWindow(c0, r0, c1 - c0, r1 - r0);
         }
         int[] lut = spec.codeToPalette();
+        int[] cellPalette = spec.cellPalette();
         Material[] palette = spec.palette();
         for (int r = r0; r < r1; r++) {
             for (int c = c0; c < c1; c++) {
@@ -48,6 +48,9 @@ public final class TileTask {
                     tileCodes[(r - tile.row0()) * tile.width() + (c - tile.col0())] = code;
                 }
                 int m = code >= 0 && code < lut.length ? lut[code] : -1;
+                if (m >= 0 && cellPalette != null && cellPalette[r * spec.grid().width() + c] >= 0) {
+                    m = cellPalette[r * spec.grid().width() + c];
+                }
                 if (m >= 0 && ScenarioPlanner.TREES.equals(palette[m].id())) {
                     trees[dst] = v;
                 } else {
@@ -86,6 +89,7 @@ public final class TileTask {
             int c = codes[i];
             idx[i] = (c >= 0 && c < lut.length) ? lut[c] : TileSimulation.NO_MATERIAL;
         }
+        spec.applyCellPalette(idx, tile.col0(), tile.row0(), tile.width());
         int[] district = spec.districts().isEmpty() ? null : Districts.assign(spec.districts(), spec.grid(),
                 tile.col0(), tile.row0(), tile.width(), tile.height());
         Material[] palette = spec.palette();

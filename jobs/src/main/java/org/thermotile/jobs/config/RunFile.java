@@ -167,12 +167,55 @@ public record RunFile(String source, String name, Site site, Inputs inputs, Weat
      * @param materials user materials file, or null
      * @param heights   building/tree height raster, or null
      * @param districts district polygons (GeoJSON), or null
+     * @param buildings building footprints rasterised into heights ({@code inputs.buildings}), or null
      */
     public record Inputs(String landCover, String classes, String materials, String heights,
-            String districts) {
+            String districts, Buildings buildings) {
+        /** Inputs without building footprints. */
+        public Inputs(String landCover, String classes, String materials, String heights, String districts) {
+            this(landCover, classes, materials, heights, districts, null);
+        }
+
         /** True when {@link #classes()} names a built-in table rather than a file. */
         public boolean classesIsBuiltIn() {
             return ClassTableReader.BUILT_IN.contains(classes);
+        }
+    }
+
+    /**
+     * Building footprints ({@code inputs.buildings}): polygons with a height or a floor-count
+     * attribute, rasterised onto the grid by {@code org.thermotile.jobs.ingest.FootprintRasteriser}.
+     * Exactly one of {@code heightAttribute} and {@code floorsAttribute} is set.
+     *
+     * @param file              GeoJSON FeatureCollection location
+     * @param heightAttribute   property holding the building height [m], or null
+     * @param floorsAttribute   property holding the number of floors, or null
+     * @param storeyHeightM     height of one floor [m] (with {@code floorsAttribute}), else NaN
+     * @param roofMaterialAttribute property whose value is a material id for the roof cells, or null
+     * @param crs               CRS of the coordinates as written in the run file (e.g. "EPSG:32632"),
+     *                          or null: the file's legacy "crs" member, else WGS 84 lon/lat (RFC 7946)
+     */
+    public record Buildings(String file, String heightAttribute, String floorsAttribute, double storeyHeightM,
+            String roofMaterialAttribute, String crs) implements java.io.Serializable {
+    }
+
+    /**
+     * How an hourly CSV in another layout maps onto our weather fields ({@code weather.columns},
+     * {@code weather.units}, …); read by {@code org.thermotile.jobs.ingest.WeatherColumns}.
+     *
+     * @param columns    our field name → the file's column name, in run-file order
+     * @param units      our field name → the unit its column is in (fields not listed: our units)
+     * @param utcOffset  offset of the file's clock from UTC, for times written without one; or null
+     * @param timeFormat a {@link java.time.format.DateTimeFormatter} pattern for the time column, or
+     *                   null for ISO-8601 ({@code 2026-07-14T13:00}, with or without offset)
+     * @param estimateGhi how to fill global irradiance when no column gives it: {@code cloud_cover},
+     *                   {@code clear_sky}, or null (then a ghi column is required)
+     */
+    public record WeatherMapping(Map<String, String> columns, Map<String, String> units, ZoneOffset utcOffset,
+            String timeFormat, String estimateGhi) {
+        public WeatherMapping {
+            columns = Collections.unmodifiableMap(new java.util.LinkedHashMap<>(columns));
+            units = Collections.unmodifiableMap(new java.util.LinkedHashMap<>(units));
         }
     }
 
@@ -183,8 +226,15 @@ public record RunFile(String source, String name, Site site, Inputs inputs, Weat
      * @param fillGapsMaxHours longest run of missing hours [h] the weather reader may fill by
      *                         interpolation; 0 (the default) means any gap is an error
      * @param synthetic        synthetic clear-sky weather, or null
+     * @param mapping          how the file's columns map onto our fields, or null when the file is in
+     *                         our own layout
      */
-    public record Weather(String file, int fillGapsMaxHours, Synthetic synthetic) {
+    public record Weather(String file, int fillGapsMaxHours, Synthetic synthetic, WeatherMapping mapping) {
+        /** Weather in our own layout (or synthetic). */
+        public Weather(String file, int fillGapsMaxHours, Synthetic synthetic) {
+            this(file, fillGapsMaxHours, synthetic, null);
+        }
+
         /** True for synthetic weather, false for a weather file. */
         public boolean isSynthetic() {
             return synthetic != null;
@@ -375,6 +425,18 @@ public record RunFile(String source, String name, Site site, Inputs inputs, Weat
         putIfSet(in, "materials", inputs.materials());
         putIfSet(in, "heights", inputs.heights());
         putIfSet(in, "districts", inputs.districts());
+        if (inputs.buildings() != null) {
+            Buildings b = inputs.buildings();
+            ObjectNode bo = in.putObject("buildings");
+            bo.put("file", b.file());
+            putIfSet(bo, "height", b.heightAttribute());
+            putIfSet(bo, "floors", b.floorsAttribute());
+            if (b.floorsAttribute() != null) {
+                bo.put("storey_height_m", b.storeyHeightM());
+            }
+            putIfSet(bo, "roof_material", b.roofMaterialAttribute());
+            putIfSet(bo, "crs", b.crs());
+        }
         ObjectNode w = root.putObject("weather");
         if (weather.isSynthetic()) {
             Synthetic sy = weather.synthetic();
@@ -387,6 +449,20 @@ public record RunFile(String source, String name, Site site, Inputs inputs, Weat
         } else {
             w.put("file", weather.file());
             w.put("fill_gaps_max_hours", weather.fillGapsMaxHours());
+            WeatherMapping m = weather.mapping();
+            if (m != null) {
+                ObjectNode co = w.putObject("columns");
+                m.columns().forEach(co::put);
+                if (!m.units().isEmpty()) {
+                    ObjectNode uo = w.putObject("units");
+                    m.units().forEach(uo::put);
+                }
+                if (m.utcOffset() != null) {
+                    w.put("utc_offset", m.utcOffset().getId());
+                }
+                putIfSet(w, "time_format", m.timeFormat());
+                putIfSet(w, "estimate_ghi", m.estimateGhi());
+            }
         }
         if (periods.isEmpty()) {             // with a weather axis, the periods are in sweep.periods
             ObjectNode pe = root.putObject("period");

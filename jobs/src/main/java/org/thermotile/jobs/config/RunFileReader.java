@@ -56,8 +56,17 @@ public final class RunFileReader {
     static final List<String> TOP = List.of("name", "site", "inputs", "weather", "period", "physics",
             "outputs", "tiling");
     static final List<String> SITE = List.of("latitude", "longitude", "elevation_m");
-    static final List<String> INPUTS = List.of("land_cover", "classes", "materials", "heights", "districts");
-    static final List<String> WEATHER = List.of("file", "fill_gaps_max_hours", "synthetic");
+    static final List<String> INPUTS = List.of("land_cover", "classes", "materials", "heights", "districts",
+            "buildings");
+    static final List<String> BUILDINGS = List.of("file", "height", "floors", "storey_height_m", "roof_material",
+            "crs");
+    static final List<String> WEATHER = List.of("file", "fill_gaps_max_hours", "synthetic", "columns", "units",
+            "utc_offset", "time_format", "estimate_ghi");
+    /** Our weather fields, as named in {@code weather.columns} (time first). */
+    public static final List<String> WEATHER_FIELDS = List.of("time", "air_temperature", "relative_humidity",
+            "wind_speed", "ghi", "dni", "dhi", "sky_longwave", "cloud_cover", "pressure");
+    /** Ways to fill global irradiance when the file has none ({@code weather.estimate_ghi}). */
+    public static final List<String> GHI_ESTIMATES = List.of("cloud_cover", "clear_sky");
     static final List<String> SYNTHETIC = List.of("t_min_c", "t_max_c", "rel_humidity_pct", "wind_ms",
             "utc_offset");
     static final List<String> PERIOD = List.of("start", "end", "spin_up_days");
@@ -73,6 +82,7 @@ public final class RunFileReader {
         RESERVED_KEYS.forEach(k -> HOME.put(k, "top level"));
         SITE.forEach(k -> HOME.put(k, "site"));
         INPUTS.forEach(k -> HOME.put(k, "inputs"));
+        BUILDINGS.forEach(k -> HOME.putIfAbsent(k, "inputs.buildings"));
         WEATHER.forEach(k -> HOME.put(k, "weather"));
         SYNTHETIC.forEach(k -> HOME.put(k, "weather.synthetic"));
         PERIOD.forEach(k -> HOME.put(k, "period"));
@@ -228,7 +238,39 @@ public final class RunFileReader {
         String materials = location(s, "materials", false, "give a materials YAML file", baseDir);
         String heights = location(s, "heights", false, "give a height GeoTIFF", baseDir);
         String districts = location(s, "districts", false, "give a GeoJSON file", baseDir);
-        return new RunFile.Inputs(landCover, classes, materials, heights, districts);
+        RunFile.Buildings buildings = null;
+        Section b = s.section("buildings", false, "");
+        if (b != null) {
+            buildings = buildings(b, baseDir);
+        }
+        return new RunFile.Inputs(landCover, classes, materials, heights, districts, buildings);
+    }
+
+    /** {@code inputs.buildings}: footprints with a height or a floor-count attribute. */
+    private static RunFile.Buildings buildings(Section s, Path baseDir) {
+        s.checkKeys(BUILDINGS, List.of(), HOME);
+        String file = location(s, "file", true, "give the footprints GeoJSON, e.g. file: footprints.geojson", baseDir);
+        String height = s.text("height", false, "name the attribute holding the height in metres, e.g. height: height_m");
+        String floors = s.text("floors", false, "name the attribute holding the floor count, e.g. floors: levels");
+        Double storey = s.number("storey_height_m", false, "give the height of one floor in metres, e.g. 3.0");
+        String roof = s.text("roof_material", false, "name the attribute whose value is a material id");
+        String crs = s.text("crs", false, "give the coordinates' CRS, e.g. crs: EPSG:32632");
+        if (s.has("height") == s.has("floors")) {
+            s.doc.at(s.path, s.has("height") ? "gives both 'height' and 'floors'; keep one"
+                    : "needs 'height: ATTR' (height in metres) or 'floors: ATTR' with 'storey_height_m: 3.0'");
+        }
+        if (s.has("floors") && !s.has("storey_height_m")) {
+            s.missing("storey_height_m", "floors need the height of one floor, e.g. storey_height_m: 3.0");
+        }
+        if (s.has("height") && s.has("storey_height_m")) {
+            s.doc.at(s.child("storey_height_m"), "applies to 'floors' only; remove it (heights are in metres)");
+        }
+        if (storey != null && !(storey >= 1.5 && storey <= 10)) {
+            s.doc.at(s.child("storey_height_m"), storey + " m is outside 1.5…10 m; give the height of one floor in "
+                    + "metres, e.g. 3.0");
+        }
+        return new RunFile.Buildings(file, height, floors, storey == null || height != null ? Double.NaN : storey,
+                roof, crs);
     }
 
     private static RunFile.Weather weather(Section s, Path baseDir) {
@@ -261,7 +303,87 @@ public final class RunFileReader {
         if (sy != null) {
             synthetic = synthetic(sy);
         }
-        return new RunFile.Weather(file, gaps == null ? 0 : gaps, synthetic);
+        RunFile.WeatherMapping mapping = null;
+        boolean mapKeys = s.has("columns") || s.has("units") || s.has("utc_offset") || s.has("time_format")
+                || s.has("estimate_ghi");
+        if (mapKeys && !hasFile) {
+            s.doc.at(s.path, "columns, units, utc_offset, time_format and estimate_ghi describe a weather file; "
+                    + "give 'file:' or remove them");
+        } else if (mapKeys) {
+            mapping = mapping(s);
+        }
+        return new RunFile.Weather(file, gaps == null ? 0 : gaps, synthetic, mapping);
+    }
+
+    /** {@code weather.columns} and its companions: an hourly CSV in another layout. */
+    private static RunFile.WeatherMapping mapping(Section s) {
+        Map<String, String> columns = new LinkedHashMap<>();
+        Section c = s.section("columns", true, "map our fields onto the file's column names, e.g. columns: "
+                + "{time: Date, air_temperature: Temp, relative_humidity: RH, wind_speed: Wind, ghi: Solar}");
+        if (c != null) {
+            c.checkKeys(WEATHER_FIELDS, List.of(), Map.of());
+            for (String k : WEATHER_FIELDS) {
+                String v = c.text(k, false, "give the file's column name for " + k);
+                if (v != null) {
+                    columns.put(k, v.strip());
+                }
+            }
+            for (String k : List.of("time", "air_temperature", "relative_humidity", "wind_speed")) {
+                if (!c.has(k)) {
+                    c.missing(k, "name the file's column for " + k + " (required)");
+                }
+            }
+        }
+        Map<String, String> units = new LinkedHashMap<>();
+        Section u = s.section("units", false, "");
+        if (u != null) {
+            u.checkKeys(WEATHER_FIELDS.subList(1, WEATHER_FIELDS.size()), List.of(), Map.of());
+            for (String k : WEATHER_FIELDS.subList(1, WEATHER_FIELDS.size())) {
+                String v = u.text(k, false, "give the unit of the " + k + " column, e.g. degF, km/h, %");
+                if (v != null) {
+                    units.put(k, v.strip());
+                }
+            }
+        }
+        ZoneOffset offset = null;
+        JsonNode o = s.raw("utc_offset");
+        if (o != null && !o.isNull()) {
+            try {
+                offset = o.isTextual() ? ZoneOffset.of(o.asText().strip()) : null;
+            } catch (DateTimeException e) {
+                offset = null;
+            }
+            if (offset == null) {
+                s.doc.at(s.child("utc_offset"), YamlDoc.describe(o) + " is not a UTC offset; write \"+HH:MM\" or "
+                        + "\"-HH:MM\" in quotes (e.g. \"+02:00\"), or \"Z\" for UTC");
+            }
+        }
+        String format = s.text("time_format", false, "give a date-time pattern, e.g. \"dd/MM/yyyy HH:mm\"");
+        if (format != null) {
+            try {
+                java.time.format.DateTimeFormatter.ofPattern(format, Locale.ROOT);
+            } catch (IllegalArgumentException e) {
+                s.doc.at(s.child("time_format"), "'" + format + "' is not a date-time pattern (" + e.getMessage()
+                        + "); use letters such as yyyy MM dd HH mm, e.g. \"dd/MM/yyyy HH:mm\"");
+            }
+        }
+        String est = s.text("estimate_ghi", false, "one of " + String.join(", ", GHI_ESTIMATES));
+        if (est != null && !GHI_ESTIMATES.contains(est)) {
+            s.doc.at(s.child("estimate_ghi"), "'" + est + "' is not a way to estimate irradiance"
+                    + Suggest.didYouMean(est, GHI_ESTIMATES) + "; use one of " + String.join(", ", GHI_ESTIMATES));
+        }
+        if (c != null && !c.has("ghi") && est == null) {
+            c.missing("ghi", "name the file's global irradiance column, or estimate it with "
+                    + "weather.estimate_ghi: cloud_cover (needs a cloud_cover column) or clear_sky");
+        }
+        if (c != null && c.has("ghi") && est != null) {
+            s.doc.at(s.child("estimate_ghi"), "the file gives ghi (column '" + columns.get("ghi") + "'); remove "
+                    + "estimate_ghi or the ghi column");
+        }
+        if ("cloud_cover".equals(est) && c != null && !c.has("cloud_cover")) {
+            c.missing("cloud_cover", "estimate_ghi: cloud_cover needs the file's cloud-cover column");
+        }
+        return new RunFile.WeatherMapping(columns, units, offset, format, est);
     }
 
     private static RunFile.Synthetic synthetic(Section s) {
@@ -368,7 +490,8 @@ public final class RunFileReader {
                 String file = location(s, "weather", false, "give an hourly weather CSV, e.g. weather-2025.csv",
                         baseDir);
                 w = file == null ? null : new RunFile.Weather(file,
-                        runWeather == null ? 0 : runWeather.fillGapsMaxHours(), null);
+                        runWeather == null ? 0 : runWeather.fillGapsMaxHours(), null,
+                        runWeather == null ? null : runWeather.mapping());
             }
             RunFile.Period p = periodValues(s);
             if (name != null && w != null && p != null) {
