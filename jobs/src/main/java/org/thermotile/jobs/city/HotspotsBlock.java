@@ -8,6 +8,8 @@ import org.thermotile.jobs.config.RunFile;
 import org.thermotile.jobs.hotspots.DistrictCells;
 import org.thermotile.jobs.hotspots.HotspotOptions;
 import org.thermotile.model.hotspot.DistanceBand;
+import org.thermotile.model.hotspot.ExcessBand;
+import org.thermotile.model.hotspot.FalseDiscovery;
 
 /**
  * The run file's optional {@code hotspots:} block, so that {@code run} also maps significant hot
@@ -15,14 +17,21 @@ import org.thermotile.model.hotspot.DistanceBand;
  * <pre>
  * hotspots:
  *   statistics: [peak]        # any of the run's maps except peak_hour
- *   distance_m: 100           # neighbourhood radius, at least one cell
+ *   cell_size_m: 40           # analysis cell, a whole multiple of the simulation cell
+ *   distance_m: 120           # optional neighbourhood radius, at least one analysis cell
+ *                             # (default: the peak of Moran's I z-score)
  *   weights: binary           # or inverse_distance
- *   fdr: 0.10                 # Benjamini–Hochberg level, at most 0.10
+ *   fdr: 0.05                 # false discovery rate, at most 0.20
+ *   fdr_method: bh            # or by (Benjamini–Yekutieli)
+ *   min_excess_k: 1           # smallest excess over the city's median that counts [K]
+ *   min_area_m2: 3200         # smallest area kept [m²]
  * </pre>
  */
-record HotspotsBlock(List<String> statistics, double distanceM, DistanceBand.Weights weights, double fdr) {
+record HotspotsBlock(List<String> statistics, double distanceM, DistanceBand.Weights weights, double fdr,
+        double cellSizeM, FalseDiscovery fdrMethod, double minExcessK, double minAreaM2) {
 
-    static final List<String> KEYS = List.of("statistics", "distance_m", "weights", "fdr");
+    static final List<String> KEYS = List.of("statistics", "cell_size_m", "distance_m", "weights", "fdr", "fdr_method",
+            "min_excess_k", "min_area_m2");
 
     /** The block of {@code run}, checked, or null when there is none. */
     static HotspotsBlock of(RunFile run, double cellM) {
@@ -32,7 +41,7 @@ record HotspotsBlock(List<String> statistics, double distanceM, DistanceBand.Wei
         }
         String where = run.source() + ": hotspots";
         if (!n.isObject()) {
-            throw new UserInputException(where + " must be a mapping (statistics, distance_m, weights, fdr)");
+            throw new UserInputException(where + " must be a mapping (" + String.join(", ", KEYS) + ")");
         }
         n.fieldNames().forEachRemaining(k -> {
             if (!KEYS.contains(k)) {
@@ -55,10 +64,19 @@ record HotspotsBlock(List<String> statistics, double distanceM, DistanceBand.Wei
                 stats.add(stat);
             }
         }
-        double d = n.path("distance_m").asDouble(HotspotOptions.DEFAULT_DISTANCE_M);
-        if (!(d >= cellM)) {
-            throw new UserInputException(where + ".distance_m: " + d + " m is less than one cell (" + cellM
-                    + " m). Fix: give at least the cell size");
+        double cell = n.path("cell_size_m").asDouble(Double.NaN);
+        if (n.has("cell_size_m") && !(cell >= cellM)) {
+            throw new UserInputException(where + ".cell_size_m: " + n.path("cell_size_m").asText() + " m is less than "
+                    + "the simulation cell (" + cellM + " m). Fix: give a whole multiple of " + cellM + " m, e.g. "
+                    + cellM * Math.max(1, Math.round(HotspotOptions.DEFAULT_CELL_SIZE_M / cellM)));
+        }
+        double minCell = Double.isNaN(cell) ? cellM * Math.max(1, Math.ceil(HotspotOptions.DEFAULT_CELL_SIZE_M / cellM
+                - 1e-9)) : cell;
+        double d = n.path("distance_m").asDouble(Double.NaN);
+        if (n.has("distance_m") && !(d >= minCell)) {
+            throw new UserInputException(where + ".distance_m: " + n.path("distance_m").asText() + " m is less than one "
+                    + "analysis cell (" + minCell + " m). Fix: give at least " + minCell + " m, or leave distance_m out "
+                    + "for the peak of Moran's I");
         }
         String w = n.path("weights").asText("binary");
         DistanceBand.Weights weights;
@@ -68,14 +86,31 @@ record HotspotsBlock(List<String> statistics, double distanceM, DistanceBand.Wei
             default -> throw new UserInputException(where + ".weights: '" + w + "'; use binary or inverse_distance");
         }
         double fdr = n.path("fdr").asDouble(HotspotOptions.DEFAULT_FDR);
-        if (!(fdr > 0 && fdr <= 0.10)) {
-            throw new UserInputException(where + ".fdr: " + fdr + " must be above 0 and at most 0.10");
+        if (!(fdr > 0 && fdr <= HotspotOptions.MAX_FDR)) {
+            throw new UserInputException(where + ".fdr: " + fdr + " must be above 0 and at most " + HotspotOptions.MAX_FDR
+                    + ". Fix: give e.g. 0.05");
         }
-        return new HotspotsBlock(List.copyOf(stats), d, weights, fdr);
+        String fm = n.path("fdr_method").asText("bh");
+        FalseDiscovery method = FalseDiscovery.ofKey(fm);
+        if (method == null) {
+            throw new UserInputException(where + ".fdr_method: '" + fm + "'; use bh or by");
+        }
+        double ex = n.path("min_excess_k").asDouble(HotspotOptions.DEFAULT_MIN_EXCESS_K);
+        if (!(ex > 0 && ex <= ExcessBand.MAX_MIN_EXCESS_K)) {
+            throw new UserInputException(where + ".min_excess_k: " + n.path("min_excess_k").asText() + " must be above 0 "
+                    + "and at most " + ExcessBand.MAX_MIN_EXCESS_K + " K. Fix: give e.g. 1");
+        }
+        double area = n.path("min_area_m2").asDouble(HotspotOptions.DEFAULT_MIN_AREA_M2);
+        if (!(area >= 0) || !Double.isFinite(area)) {
+            throw new UserInputException(where + ".min_area_m2: " + n.path("min_area_m2").asText() + " must be a number "
+                    + "of m² at least 0. Fix: give e.g. 3200");
+        }
+        return new HotspotsBlock(List.copyOf(stats), d, weights, fdr, cell, method, ex, area);
     }
 
     HotspotOptions options(String statistic, int tileSize) {
         return HotspotOptions.of(statistic).withDistance(distanceM, weights).withFdr(fdr).withTileSize(tileSize)
-                .withDistricts(DistrictCells.GEOJSON);
+                .withDistricts(DistrictCells.GEOJSON).withCellSize(cellSizeM).withFdrMethod(fdrMethod)
+                .withEffect(minExcessK, minAreaM2);
     }
 }

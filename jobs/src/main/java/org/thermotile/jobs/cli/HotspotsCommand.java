@@ -9,19 +9,22 @@ import org.thermotile.jobs.city.SparkSessions;
 import org.thermotile.jobs.hotspots.HotspotOptions;
 import org.thermotile.jobs.hotspots.Hotspots;
 import org.thermotile.model.hotspot.DistanceBand.Weights;
-import org.thermotile.model.hotspot.HotspotClass;
+import org.thermotile.model.hotspot.ExcessBand;
+import org.thermotile.model.hotspot.FalseDiscovery;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
 
 /** {@code thermotile hotspots}: significant hot and cold spots of a finished run. */
 @Command(name = "hotspots", mixinStandardHelpOptions = true, sortOptions = false,
-        description = {"Finds statistically significant hot and cold spots in a finished run: Getis-Ord Gi* "
-                + "z-scores on a fixed distance band, two-sided normal p-values, Benjamini-Hochberg false "
-                + "discovery rate, classes at 90, 95 and 99 %% confidence, merged into polygons.",
-                "Writes RUN_DIR/hotspots/STATISTIC/ (or RUN_DIR/scenarios/NAME/hotspots/STATISTIC/): zscore.tif, "
-                        + "class.tif, hotspots.geojson (the maps' CRS), hotspots_wgs84.geojson, polygons/ and "
-                        + "districts/ (Parquet), summary.json. Reads the run's maps; never re-simulates."})
+        description = {"Finds hot and cold areas of a finished run at planning scale: the map is aggregated to "
+                + "analysis cells (area-weighted means), Getis-Ord Gi* z-scores on a distance band (by default at the "
+                + "peak of Moran's I), Benjamini-Hochberg or -Yekutieli q-values, and an area counts when it is "
+                + "significant and warmer (cooler) than the city's median by at least the minimum excess.",
+                "Writes RUN_DIR/hotspots/STATISTIC/ (or RUN_DIR/scenarios/NAME/hotspots/STATISTIC/): excess_band.tif, "
+                        + "excess_k.tif, qvalue.tif, zscore.tif, hotspots.geojson (the maps' CRS), "
+                        + "hotspots_wgs84.geojson, polygons/ and districts/ (Parquet), summary.json. Reads the run's "
+                        + "maps; never re-simulates."})
 public final class HotspotsCommand implements Callable<Integer> {
     @Parameters(index = "0", paramLabel = "RUN_DIR", description = "a folder written by 'thermotile run'")
     Path runDir;
@@ -40,17 +43,36 @@ public final class HotspotsCommand implements Callable<Integer> {
                     + "areas comparable with the run's) or the scenario's own (scenario) (default: ${DEFAULT-VALUE})")
     String reference;
 
-    @Option(names = "--distance", paramLabel = "METRES", defaultValue = "100",
-            description = "distance band D in metres: neighbours whose centres lie within D (default: ${DEFAULT-VALUE})")
-    double distanceM;
+    @Option(names = "--cell-size", paramLabel = "METRES",
+            description = "analysis cell, a whole multiple of the simulation cell (default: 40 m rounded up to a "
+                    + "multiple of the simulation cell)")
+    Double cellSizeM;
+
+    @Option(names = "--distance", paramLabel = "METRES",
+            description = "distance band D in metres: neighbours whose centres lie within D, at least one analysis "
+                    + "cell (default: the distance of the largest Moran's I z-score)")
+    Double distanceM;
 
     @Option(names = "--weights", paramLabel = "KIND", defaultValue = "binary",
             description = "binary or inverse_distance (default: ${DEFAULT-VALUE})")
     String weights;
 
-    @Option(names = "--fdr", paramLabel = "Q", defaultValue = "0.10",
-            description = "Benjamini-Hochberg false discovery rate, at most 0.10 (default: ${DEFAULT-VALUE})")
+    @Option(names = "--fdr", paramLabel = "Q", defaultValue = "0.05",
+            description = "false discovery rate, at most 0.20 (default: ${DEFAULT-VALUE})")
     double fdr;
+
+    @Option(names = "--fdr-method", paramLabel = "M", defaultValue = "bh",
+            description = "bh (Benjamini-Hochberg 1995) or by (Benjamini-Yekutieli 2001, valid under any "
+                    + "dependence) (default: ${DEFAULT-VALUE})")
+    String fdrMethod;
+
+    @Option(names = "--min-excess", paramLabel = "KELVIN", defaultValue = "1",
+            description = "smallest excess over the city's median that counts, in K (default: ${DEFAULT-VALUE})")
+    double minExcessK;
+
+    @Option(names = "--min-area", paramLabel = "M2", defaultValue = "3200",
+            description = "smallest hot or cold area kept, in m² (default: ${DEFAULT-VALUE})")
+    double minAreaM2;
 
     @Option(names = "--tile-size", paramLabel = "N", defaultValue = "256",
             description = "cells per tile edge of the parallel pass; results do not depend on it (default: ${DEFAULT-VALUE})")
@@ -77,8 +99,13 @@ public final class HotspotsCommand implements Callable<Integer> {
         if (ref == null) {
             throw new UserInputException("--reference '" + reference + "' is unknown. Fix: give baseline or scenario");
         }
-        return new HotspotOptions(statistic, scenario, distanceM, w, fdr, tileSize, replace,
-                org.thermotile.jobs.hotspots.DistrictCells.GEOJSON, ref);
+        FalseDiscovery fm = FalseDiscovery.ofKey(fdrMethod);
+        if (fm == null) {
+            throw new UserInputException("--fdr-method '" + fdrMethod + "' is unknown. Fix: give bh or by");
+        }
+        return new HotspotOptions(statistic, scenario, distanceM == null ? Double.NaN : distanceM, w, fdr, tileSize,
+                replace, org.thermotile.jobs.hotspots.DistrictCells.GEOJSON, ref,
+                cellSizeM == null ? Double.NaN : cellSizeM, fm, minExcessK, minAreaM2);
     }
 
     @Override
@@ -102,21 +129,22 @@ public final class HotspotsCommand implements Callable<Integer> {
     }
 
     static void print(Hotspots.Result r, PrintStream out) {
-        out.printf(Locale.ROOT, "%s%s: %s%d cells, mean %.3f %s, sd %.3f %s; %s%n", r.statistic(),
-                r.scenario() == null ? "" : " (scenario " + r.scenario() + ")",
-                r.reference().equals("baseline") ? "compared with the run's " : "", r.validCells(), r.mean(), r.unit(),
-                r.sd(), r.unit(), r.band());
+        out.printf(Locale.ROOT, "%s%s: %s%d analysis cells of %.0f m, median %.2f %s, sd %.3f %s; %s (%s)%n",
+                r.statistic(), r.scenario() == null ? "" : " (scenario " + r.scenario() + ")",
+                r.reference().equals("baseline") ? "compared with the run's " : "", r.validCells(), r.analysisCellM(),
+                r.referenceK(), r.unit(), r.sd(), r.unit(), r.band(),
+                r.distanceRule().equals("given") ? "given" : "peak of Moran's I");
         StringBuilder cls = new StringBuilder();
-        for (HotspotClass.Code c : HotspotClass.TABLE) {
-            cls.append(String.format(Locale.ROOT, "%n  %2d %-28s %d cells", c.code(), c.label(), r.classCells().get(c.code())));
+        for (ExcessBand.Band b : ExcessBand.table(r.minExcessK())) {
+            cls.append(String.format(Locale.ROOT, "%n  %4d %-22s %d cells", b.code(), b.label(), r.bandCells().get(b.code())));
         }
-        out.println("classes (FDR " + r.thresholds().fdr() + "):" + cls);
-        out.printf(Locale.ROOT, "hot spots: %d polygons, %.0f m²%s; cold spots: %d polygons, %.0f m²%n",
-                r.hotPolygons(), r.hotAreaM2(), Double.isNaN(r.hotMeanValue()) ? ""
-                        : String.format(Locale.ROOT, ", mean %.2f %s", r.hotMeanValue(), r.unit()),
-                r.coldPolygons(), r.coldAreaM2());
+        out.println("excess bands (" + r.fdrMethod().toUpperCase(Locale.ROOT) + " q <= " + r.fdr() + "):" + cls);
+        double city = r.cityAreaM2() > 0 ? r.cityAreaM2() : 1;
+        out.printf(Locale.ROOT, "warmer areas: %d polygons, %.0f m² (%.1f %% of the city); cooler: %d polygons, %.0f m² "
+                + "(%.1f %%); largest %.0f m²%n", r.hotPolygons(), r.hotAreaM2(), 100 * r.hotAreaM2() / city,
+                r.coldPolygons(), r.coldAreaM2(), 100 * r.coldAreaM2() / city, r.largestPolygonM2());
         if (r.hotAreaRemovedM2() != null) {
-            out.printf(Locale.ROOT, "hot-spot area removed against the run itself: %.0f m²%n", r.hotAreaRemovedM2());
+            out.printf(Locale.ROOT, "hot area removed against the run itself: %.0f m²%n", r.hotAreaRemovedM2());
         }
         r.notes().forEach(n -> out.println("note: " + n));
         out.println("outputs: " + r.outDir());

@@ -15,18 +15,22 @@ import org.apache.spark.sql.types.StructType;
 final class HotspotTables {
     private HotspotTables() {}
 
-    /** One row per polygon: the GeoJSON properties plus the centroid. */
+    /** One row per polygon, largest area × excess first: the GeoJSON properties plus the centroid. */
     static final StructType POLYGONS = new StructType()
             .add("id", DataTypes.IntegerType, false)
-            .add("class", DataTypes.IntegerType, false)
+            .add("kind", DataTypes.StringType, false)
+            .add("top_band", DataTypes.IntegerType, false)
             .add("label", DataTypes.StringType, false)
             .add("cells", DataTypes.IntegerType, false)
             .add("area_m2", DataTypes.DoubleType, false)
+            .add("holes", DataTypes.IntegerType, false)
+            .add("mean_excess_k", DataTypes.DoubleType, false)
+            .add("max_abs_excess_k", DataTypes.DoubleType, false)
+            .add("area_x_excess_m2k", DataTypes.DoubleType, false)
+            .add("max_q", DataTypes.DoubleType, false)
             .add("statistic", DataTypes.StringType, false)
             .add("unit", DataTypes.StringType, false)
             .add("mean_value", DataTypes.DoubleType, false)
-            .add("min_value", DataTypes.DoubleType, false)
-            .add("max_value", DataTypes.DoubleType, false)
             .add("mean_z", DataTypes.DoubleType, false)
             .add("district_id", DataTypes.StringType, true)
             .add("district_name", DataTypes.StringType, true)
@@ -35,23 +39,30 @@ final class HotspotTables {
             .add("centroid_lon", DataTypes.DoubleType, false)
             .add("centroid_lat", DataTypes.DoubleType, false);
 
-    /** One row per district (and one for cells outside every district, or one for all cells). */
+    /** One row per district (and one for cells outside every district, or one for all cells); areas are data areas. */
     static final StructType DISTRICTS = new StructType()
             .add("district_id", DataTypes.StringType, true)
             .add("district_name", DataTypes.StringType, false)
             .add("cells", DataTypes.LongType, false)
             .add("area_m2", DataTypes.DoubleType, false)
             .add("mean_value", DataTypes.DoubleType, true)
-            .add("hot_cells", DataTypes.LongType, false)
             .add("hot_area_m2", DataTypes.DoubleType, false)
             .add("hot_share", DataTypes.DoubleType, true)
-            .add("hot_99_cells", DataTypes.LongType, false)
-            .add("cold_cells", DataTypes.LongType, false)
+            .add("hot_mean_excess_k", DataTypes.DoubleType, true)
             .add("cold_area_m2", DataTypes.DoubleType, false)
             .add("cold_share", DataTypes.DoubleType, true)
-            .add("cold_99_cells", DataTypes.LongType, false)
             .add("hot_polygons", DataTypes.IntegerType, false)
             .add("cold_polygons", DataTypes.IntegerType, false);
+
+    /** A scenario's hot area against the run's, per district [m²]: removed = hot before and not after. */
+    static final StructType CHANGE = new StructType()
+            .add("district_id", DataTypes.StringType, true)
+            .add("district_name", DataTypes.StringType, false)
+            .add("baseline_hot_m2", DataTypes.DoubleType, false)
+            .add("scenario_hot_m2", DataTypes.DoubleType, false)
+            .add("removed_m2", DataTypes.DoubleType, false)
+            .add("added_m2", DataTypes.DoubleType, false)
+            .add("net_removed_m2", DataTypes.DoubleType, false);
 
     static void write(SparkSession spark, List<Row> rows, StructType schema, Path dir) {
         spark.createDataFrame(rows, schema).coalesce(1).write().mode(SaveMode.ErrorIfExists)

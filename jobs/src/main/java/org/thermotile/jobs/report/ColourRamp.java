@@ -44,6 +44,20 @@ public final class ColourRamp {
         {0.40, 0.11, 42},
     });
 
+    /**
+     * Ramp for the hot-area bands: deep pine green (cooler) through a pale stone (not distinct) to
+     * deep aubergine (warmer), control points as {L, C, h°} in OKLCh (our design). Lightness falls
+     * evenly towards both ends, so the strength of a band reads in greyscale; the hues are neither
+     * red nor blue.
+     */
+    public static final ColourRamp VERGE = ofOkLch("Verge", new double[][] {
+        {0.38, 0.08, 160},
+        {0.66, 0.08, 150},
+        {0.95, 0.015, 85},
+        {0.64, 0.10, 330},
+        {0.36, 0.10, 320},
+    });
+
     private final String name;
     private final double[][] okLab;
     private final int[] table = new int[STEPS];

@@ -37,9 +37,10 @@ import org.thermotile.jobs.io.raster.RasterGrid;
  *   <li>{@code maps/peak.tif, mean.tif, night_min.tif, degree_hours.tif, hours_above.tif};</li>
  *   <li>the districts GeoJSON named by {@code run_file.inputs.districts} (outlines and names);</li>
  *   <li>{@code tables/material_hours} and {@code tables/district_hours} (Parquet);</li>
- *   <li>{@code hotspots/<stat>/}: a class GeoTIFF ({@code *class*.tif}, integer classes, negative
- *       = cold spot, 0 = not significant, positive = hot spot), a z-score GeoTIFF
- *       ({@code *z*.tif}) and polygons ({@code *.geojson});</li>
+ *   <li>{@code hotspots/<stat>/}: an excess-band GeoTIFF ({@code *band*.tif}, signed band codes in
+ *       tenths of a kelvin, negative = cooler, 0 = not distinct, positive = warmer), an excess
+ *       GeoTIFF ({@code *excess_k*.tif}) and polygons ({@code *.geojson}); a scenario's
+ *       {@code scenarios/<name>/hotspots/<stat>/summary.json} with its programme change;</li>
  *   <li>{@code scenarios/<name>/maps/<stat>.tif} (the programme's map) and
  *       {@code delta_<stat>.tif} (programme − baseline), and the ranking table
  *       {@code scenarios/ranking} (Parquet folder), {@code ranking.parquet} or {@code ranking.csv}.</li>
@@ -660,10 +661,12 @@ public final class RunReport {
         if (stats.isEmpty()) {
             return;
         }
-        section("hotspots", "Hotspots");
-        body.append("<p>Clusters of hot and cold cells (Getis–Ord Gi* with a false-discovery-rate correction). On the "
-                + "class maps, hot spots are orange and cold spots blue, stronger colours meaning higher confidence; "
-                + "the polygons outline the clusters.</p>\n");
+        section("hotspots", "Hot and cold areas");
+        body.append("<p>Areas of analysis cells that are warmer (or cooler) than the city's median by at least the "
+                + "minimum excess and pass the false-discovery-rate test of their Getis–Ord Gi* z-score. The band map "
+                + "uses thermotile's <em>Verge</em> ramp: aubergine is warmer, green cooler, darker means a larger "
+                + "excess; the polygons outline the areas, and the table lists them largest first (area × excess)."
+                + "</p>\n");
         for (Path s : stats) {
             String stat = s.getFileName().toString();
             body.append("<h3>").append(Html.esc(mapTitle(stat))).append(" (").append(Html.esc(stat)).append(")</h3>\n");
@@ -675,41 +678,70 @@ public final class RunReport {
                 features.forEach(f -> polys.add(new MapRenderer.Outline(f.geometry(), null)));
             }
             body.append("<div class=\"figs\">\n");
-            Optional<Path> cls = firstMatching(s, "class", ".tif");
-            if (cls.isPresent()) {
-                Raster r = readRaster(cls.get());
-                double[] range = MapRenderer.range(r.values());
-                List<MapRenderer.Category> cats = categories(r.values());
-                double m = Double.isNaN(range[0]) ? 1 : Math.max(1, Math.max(Math.abs(range[0]), Math.abs(range[1])));
-                MapRenderer.Style style = new MapRenderer.Style("Hotspot classes: " + mapTitle(stat).toLowerCase(Locale.ROOT),
-                        subtitle, "class", ColourRamp.FULCRUM, cats);
+            Optional<Path> bands = firstMatching(s, "band", ".tif");
+            if (bands.isPresent()) {
+                Raster r = readRaster(bands.get());
+                double m = symmetric(MapRenderer.range(r.values()));
+                MapRenderer.Style style = new MapRenderer.Style("Hot and cold areas: " + mapTitle(stat).toLowerCase(Locale.ROOT),
+                        subtitle, "band", ColourRamp.VERGE, categories(r.values()));
                 MapRenderer.Figure f = MapRenderer.render(r.values(), r.grid(), polys, style, -m, m);
-                Path png = pngBeside(cls.get());
+                Path png = pngBeside(bands.get());
                 writePng(png, f.png());
-                String key = "hotspots/" + stat + "/class";
-                maps.add(new MapEntry(key, style.title(), "class", f, png));
-                figure(key, f, "", "Hot and cold spot classes, with the cluster polygons outlined.", rel(png));
+                String key = "hotspots/" + stat + "/band";
+                maps.add(new MapEntry(key, style.title(), "band", f, png));
+                figure(key, f, "", "Excess bands over the city's median, with the area polygons outlined.", rel(png));
             }
-            Optional<Path> z = list(s).stream().filter(p -> {
-                String n = p.getFileName().toString().toLowerCase(Locale.ROOT);
-                return n.endsWith(".tif") && n.contains("z") && !n.contains("class");
-            }).findFirst();
-            if (z.isPresent()) {
-                Raster r = readRaster(z.get());
-                double[] range = MapRenderer.range(r.values());
-                double m = symmetric(range);
-                MapRenderer.Style style = new MapRenderer.Style("Gi* z-score: " + mapTitle(stat).toLowerCase(Locale.ROOT),
-                        subtitle, "z", ColourRamp.FULCRUM);
+            Optional<Path> excess = firstMatching(s, "excess_k", ".tif");
+            if (excess.isPresent()) {
+                Raster r = readRaster(excess.get());
+                double m = symmetric(MapRenderer.range(r.values()));
+                MapRenderer.Style style = new MapRenderer.Style("Excess over the median: " + mapTitle(stat).toLowerCase(Locale.ROOT),
+                        subtitle, "K", ColourRamp.FULCRUM);
                 MapRenderer.Figure f = MapRenderer.render(r.values(), r.grid(), polys, style, -m, m);
-                Path png = pngBeside(z.get());
+                Path png = pngBeside(excess.get());
                 writePng(png, f.png());
-                String key = "hotspots/" + stat + "/z";
-                maps.add(new MapEntry(key, style.title(), "z", f, png));
-                figure(key, f, "z", "Gi* z-scores on a ramp centred at zero (blue below, orange above).", rel(png));
+                String key = "hotspots/" + stat + "/excess";
+                maps.add(new MapEntry(key, style.title(), "K", f, png));
+                figure(key, f, "K", "Each analysis cell's excess over the city's median, in kelvin, on the Fulcrum "
+                        + "ramp centred at zero.", rel(png));
             }
             body.append("</div>\n");
             if (gj.isPresent()) {
                 polygonTable(features, gj.get());
+            }
+        }
+        programmeChangeTables();
+    }
+
+    /** Per scenario and statistic, the hot area the programme removes or adds, per district. */
+    private void programmeChangeTables() {
+        for (Path sc : list(dir.resolve("scenarios"))) {
+            for (Path st : list(sc.resolve("hotspots"))) {
+                Path sum = st.resolve("summary.json");
+                if (!Files.isRegularFile(sum)) {
+                    continue;
+                }
+                JsonNode j;
+                try {
+                    j = new ObjectMapper().readTree(sum.toFile());
+                } catch (IOException e) {
+                    throw new UncheckedIOException("cannot read " + sum, e);
+                }
+                if (!j.has("programme_change")) {
+                    continue;
+                }
+                body.append("<h3>Hot area removed or added by ").append(Html.esc(sc.getFileName().toString()))
+                        .append(" (").append(Html.esc(st.getFileName().toString())).append(")</h3>\n")
+                        .append("<table class=\"data\"><thead><tr><th>district</th><th>hot before [m²]</th>"
+                                + "<th>hot after [m²]</th><th>removed [m²]</th><th>added [m²]</th></tr></thead><tbody>\n");
+                for (JsonNode r : j.path("programme_change")) {
+                    body.append("<tr><td>").append(Html.esc(r.path("district_name").asText())).append("</td>");
+                    for (String k : List.of("baseline_hot_m2", "scenario_hot_m2", "removed_m2", "added_m2")) {
+                        body.append("<td class=\"n\">").append(fmtInt(Math.round(r.path(k).asDouble()))).append("</td>");
+                    }
+                    body.append("</tr>\n");
+                }
+                body.append("</tbody></table>\n");
             }
         }
     }
@@ -723,7 +755,8 @@ public final class RunReport {
         }
         List<MapRenderer.Category> out = new ArrayList<>();
         for (int k : seen.descendingSet()) {
-            String label = k > 0 ? "hot spot, class " + k : k < 0 ? "cold spot, class " + (-k) : "not significant";
+            String edge = String.format(Locale.ROOT, "%s K", num(Math.abs(k) / 10.0, Math.abs(k) % 10 == 0 ? 0 : 1));
+            String label = k > 0 ? "warmer by ≥ " + edge : k < 0 ? "cooler by ≥ " + edge : "not distinct";
             out.add(new MapRenderer.Category(k, label));
         }
         return out;

@@ -45,7 +45,7 @@ class CityJobTest {
     static void runOnce() throws Exception {
         spark = SparkSessions.get(null, 2);
         Path rf = CityFixture.write(dir.resolve("in256"), 256, "  hourly_days: [2026-07-15]");
-        Files.writeString(rf, Files.readString(rf) + "hotspots: {statistics: [peak, mean], distance_m: 30}\n");
+        Files.writeString(rf, Files.readString(rf) + "hotspots: {statistics: [peak, mean], cell_size_m: 10, distance_m: 30}\n");
         prepared = RunPreparer.prepare(RunFileReader.read(rf));
         out256 = dir.resolve("out256");
         CityJob.run(spark, prepared, new CityJob.Options(out256, null, false, true, 0), quietConsole());
@@ -64,7 +64,7 @@ class CityJobTest {
     void writesMapsTablesAndManifestAndNothingElse() {
         for (String f : List.of("maps/peak.tif", "maps/mean.tif", "maps/night_min.tif", "maps/peak_hour.tif",
                 "maps/degree_hours.tif", "maps/hourly_2026-07-15.tif", "tables/cells", "tables/material_hours",
-                "tables/cell_hours", "tables/district_hours", "manifest.json", "hotspots/peak/class.tif",
+                "tables/cell_hours", "tables/district_hours", "manifest.json", "hotspots/peak/excess_band.tif",
                 "hotspots/mean/hotspots.geojson")) {
             assertTrue(Files.exists(out256.resolve(f)), f);
         }

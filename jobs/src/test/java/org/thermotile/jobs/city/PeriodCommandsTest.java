@@ -68,7 +68,7 @@ class PeriodCommandsTest {
         assertTrue(herr.toString().contains("several periods") && herr.toString().contains("periods/mid-july"),
                 herr.toString());
         assertEquals(0, cli(err, "hotspots", out.resolve("periods/late-july").toString(), "--statistic", "peak",
-                "--distance", "30"), err.toString());
+                "--cell-size", "10", "--distance", "30"), err.toString());
         assertTrue(Files.isDirectory(out.resolve("periods/late-july/hotspots/peak")));
     }
 }

@@ -31,7 +31,15 @@ class HotspotsCommandTest {
         Path run = HotspotFixture.write(dir.resolve("run"));
         StringWriter err = new StringWriter();
         assertEquals(2, cli(err).execute("hotspots", run.toString(), "--distance", "2"));
-        assertTrue(err.toString().contains("thermotile hotspots: --distance 2 m is smaller than one cell"), err.toString());
+        assertTrue(err.toString().contains("thermotile hotspots: --distance (distance_m) 2 m is smaller than one analysis "
+                + "cell (40 m)"), err.toString());
+        StringWriter err4 = new StringWriter();
+        assertEquals(2, cli(err4).execute("hotspots", run.toString(), "--cell-size", "3"));
+        assertTrue(err4.toString().contains("smaller than the simulation cell") && err4.toString().contains("Fix"),
+                err4.toString());
+        StringWriter err5 = new StringWriter();
+        assertEquals(2, cli(err5).execute("hotspots", run.toString(), "--fdr-method", "holm"));
+        assertTrue(err5.toString().contains("give bh or by"), err5.toString());
         StringWriter err2 = new StringWriter();
         assertEquals(2, cli(err2).execute("hotspots", run.toString(), "--weights", "gaussian"));
         assertTrue(err2.toString().contains("binary or inverse_distance"), err2.toString());
@@ -44,9 +52,10 @@ class HotspotsCommandTest {
     void goodRunExitsWithZero() throws Exception {
         Path run = HotspotFixture.write(dir.resolve("run"));
         StringWriter err = new StringWriter();
-        int code = cli(err).execute("hotspots", run.toString(), "--statistic", "night_min", "--distance", "20",
+        int code = cli(err).execute("hotspots", run.toString(), "--statistic", "night_min", "--cell-size", "10", "--distance", "20",
+                "--fdr-method", "by",
                 "--weights", "inverse_distance", "--fdr", "0.05", "--tile-size", "64", "--threads", "2");
         assertEquals(0, code, err.toString());
-        assertTrue(Files.isRegularFile(run.resolve("hotspots/night_min/class.tif")));
+        assertTrue(Files.isRegularFile(run.resolve("hotspots/night_min/excess_band.tif")));
     }
 }

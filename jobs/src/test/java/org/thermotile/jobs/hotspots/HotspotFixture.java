@@ -26,7 +26,7 @@ public final class HotspotFixture {
     public static final int W = 150, H = 110;
     public static final double X0 = 500_000, Y0 = 5_020_000, CELL = 5;
     /** The planted square: columns SQ_C0 … SQ_C0+SQ−1, rows SQ_R0 … SQ_R0+SQ−1. */
-    public static final int SQ_C0 = 40, SQ_R0 = 50, SQ = 12;
+    public static final int SQ_C0 = 40, SQ_R0 = 48, SQ = 12;   // aligned to analysis cells of 4 × 4 cells
     public static final double SQ_LIFT = 4.0;
 
     public static RasterGrid grid() {
@@ -42,7 +42,7 @@ public final class HotspotFixture {
     }
 
     /** The planted ring: outer square RING_C0 … RING_C0+RING−1 (columns and rows alike), 4 cells wide. */
-    public static final int RING_C0 = 95, RING_R0 = 30, RING = 24, RING_WIDTH = 4;
+    public static final int RING_C0 = 96, RING_R0 = 28, RING = 24, RING_WIDTH = 4;   // aligned likewise
 
     static boolean inRing(int col, int row) {
         int c = col - RING_C0, r = row - RING_R0;
@@ -131,10 +131,17 @@ public final class HotspotFixture {
 
     /** Two districts split at column 75: west (index 0) and east (index 1); the no-data corner in none. */
     public static DistrictCells twoDistricts() {
-        int[] cell = new int[W * H];
-        for (int r = 0; r < H; r++) {
-            for (int c = 0; c < W; c++) {
-                cell[r * W + c] = noData(c, r) ? -1 : c < 75 ? 0 : 1;
+        return twoDistricts(grid());
+    }
+
+    /** The same split (easting X0 + 75 cells) on any grid over the fixture, by cell centre. */
+    public static DistrictCells twoDistricts(RasterGrid g) {
+        int[] cell = new int[g.width() * g.height()];
+        double split = X0 + 75 * CELL;
+        boolean fine = g.sameGridAs(grid());
+        for (int r = 0; r < g.height(); r++) {
+            for (int c = 0; c < g.width(); c++) {
+                cell[r * g.width() + c] = fine && noData(c, r) ? -1 : g.cellCentreX(c) < split ? 0 : 1;
             }
         }
         return DistrictCells.of(List.of(new DistrictCells.District(0, "W1", "Westbank"),

@@ -31,18 +31,47 @@ class HotspotsErrorsTest {
 
     @Test
     void distanceSmallerThanOneCell() {
-        String m = error(run, HotspotOptions.of("peak").withDistance(3, Weights.BINARY));
-        assertTrue(m.contains("--distance 3 m is smaller than one cell"), m);
-        assertTrue(m.contains("peak.tif") && m.contains("5 m × 5 m") && m.contains("Fix: give at least 5 m"), m);
+        // The default analysis cell on 5 m cells is 40 m (8 × 8 cells).
+        String m = error(run, HotspotOptions.of("peak").withDistance(30, Weights.BINARY));
+        assertTrue(m.contains("--distance (distance_m) 30 m is smaller than one analysis cell (40 m)"), m);
+        assertTrue(m.contains("Fix: give at least 40 m, or leave it out"), m);
+        Hotspots.prepare(run, HotspotOptions.of("peak").withCellSize(10).withDistance(10, Weights.BINARY));
+    }
+
+    @Test
+    void cellSizeBelowTheSimulationCell() {
+        String m = error(run, HotspotOptions.of("peak").withCellSize(2));
+        assertTrue(m.contains("--cell-size (cell_size_m) 2 m is smaller than the simulation cell"), m);
+        assertTrue(m.contains("peak.tif (5 m)") && m.contains("Fix: give a whole multiple of 5 m, e.g. --cell-size 40"), m);
+        String k = error(run, HotspotOptions.of("peak").withCellSize(12));
+        assertTrue(k.contains("not a whole multiple of the simulation cell 5.0 m") && k.contains("e.g. --cell-size 10"), k);
+    }
+
+    @Test
+    void polygonsOutsideTheGrid() throws IOException {
+        Path r = HotspotFixture.write(dir.resolve("faraway"), dir.resolve("faraway/districts.geojson").toString());
+        Files.writeString(r.resolve("districts.geojson"), """
+                {"type": "FeatureCollection",
+                 "crs": {"type": "name", "properties": {"name": "urn:ogc:def:crs:EPSG::32632"}}, "features": [
+                 {"type": "Feature", "properties": {"id": "N9", "name": "Northpoint"},
+                  "geometry": {"type": "Polygon", "coordinates": [[[600000, 5100000], [600100, 5100000],
+                   [600100, 5100100], [600000, 5100000]]]}}]}
+                """);
+        String m = assertThrows(UserInputException.class, () -> Hotspots.prepare(r, HotspotOptions.of("peak")
+                .withDistricts(DistrictCells.GEOJSON))).getMessage();
+        assertTrue(m.contains("districts.geojson"), m);
+        assertTrue(m.contains("N9") || m.contains("outside"), m);
+        assertTrue(m.contains("Fix"), m);
     }
 
     @Test
     void distanceLargerThanTheGrid() {
         // The grid is 150 × 110 cells of 5 m: 750 m × 550 m.
+        // On the analysis grid of 40 m: 19 × 14 cells, 760 m × 560 m.
         String m = error(run, HotspotOptions.of("peak").withDistance(600, Weights.BINARY));
         assertTrue(m.contains("--distance 600 m is larger than the grid"), m);
-        assertTrue(m.contains("750 m × 550 m") && m.contains("at most 550 m"), m);
-        Hotspots.prepare(run, HotspotOptions.of("peak").withDistance(550, Weights.BINARY));   // the limit itself is fine
+        assertTrue(m.contains("760 m × 560 m") && m.contains("at most 560 m"), m);
+        Hotspots.prepare(run, HotspotOptions.of("peak").withDistance(560, Weights.BINARY));   // the limit itself is fine
     }
 
     @Test
@@ -139,8 +168,10 @@ class HotspotsErrorsTest {
 
     @Test
     void badOptionValues() {
-        String f = assertThrows(UserInputException.class, () -> HotspotOptions.of("peak").withFdr(0.2)).getMessage();
-        assertTrue(f.contains("--fdr 0.2 is outside (0, 0.10]"), f);
+        String f = assertThrows(UserInputException.class, () -> HotspotOptions.of("peak").withFdr(0.3)).getMessage();
+        assertTrue(f.contains("--fdr 0.3 is outside (0, 0.20]"), f);
+        String e = assertThrows(UserInputException.class, () -> HotspotOptions.of("peak").withEffect(0, 0)).getMessage();
+        assertTrue(e.contains("--min-excess 0.0 K") && e.contains("Fix"), e);
         String t = assertThrows(UserInputException.class, () -> HotspotOptions.of("peak").withTileSize(8)).getMessage();
         assertTrue(t.contains("--tile-size 8"), t);
         String d = assertThrows(UserInputException.class,

@@ -3,7 +3,6 @@ package org.thermotile.jobs.hotspots;
 import static org.junit.jupiter.api.Assertions.assertArrayEquals;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertFalse;
-import static org.junit.jupiter.api.Assertions.assertNotNull;
 import static org.junit.jupiter.api.Assertions.assertNull;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 import static org.junit.jupiter.api.Assertions.fail;
@@ -17,7 +16,6 @@ import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
-import java.util.Map;
 import java.util.concurrent.TimeUnit;
 import org.apache.spark.sql.Row;
 import org.apache.spark.sql.SparkSession;
@@ -33,15 +31,24 @@ import org.locationtech.jts.geom.Polygon;
 import org.thermotile.jobs.city.SparkSessions;
 import org.thermotile.jobs.io.raster.GeoTiffReader;
 import org.thermotile.model.hotspot.DistanceBand.Weights;
+import org.thermotile.model.hotspot.FalseDiscovery;
 
-/** The hotspot job end to end on a written run folder, one shared embedded Spark session. */
+/**
+ * The hot-spot job end to end on a written run folder (5 m cells aggregated to 20 m analysis
+ * cells, 4 × 4 cells each), one shared embedded Spark session. The planted square (60 m, +4 K) and
+ * ring (+4 K, a hole of 4 × 4 analysis cells) are aligned to the analysis cells; the noise
+ * (σ = 1 K per 5 m cell) is σ = 0.25 K per analysis cell, far below the 1 K minimum excess.
+ */
 class HotspotsJobTest {
     static SparkSession spark;
+
     @TempDir
     static Path dir;
     static Path run64, run256;
-    static Hotspots.Result peak64, peak256, uniform, noise, scenario, scenarioPeak, scenarioOwn;
-    static final double CELL_AREA = HotspotFixture.CELL * HotspotFixture.CELL;
+    static Hotspots.Result peak64, peak256, uniform, noise, scenario, scenarioPeak, scenarioOwn, moran, byPeak;
+    static List<Row> change;
+    static final double ACELL = 20, ACELL_AREA = ACELL * ACELL;
+    static final int SQ_CELLS = 9, RING_CELLS = 36 - 16;
 
     @BeforeAll
     static void runOnce() throws IOException {
@@ -52,18 +59,37 @@ class HotspotsJobTest {
         run256 = HotspotFixture.write(dir.resolve("run256"), "districts.geojson");
         Files.writeString(run256.resolve("districts.geojson"), "{}");
         rewriteDistrictsPath(run256);
-        HotspotOptions peak = HotspotOptions.of("peak").withDistance(15, Weights.BINARY)
-                .withDistricts((f, g) -> HotspotFixture.twoDistricts());
+        HotspotOptions peak = HotspotOptions.of("peak").withCellSize(ACELL).withDistance(20, Weights.BINARY)
+                .withDistricts((f, g) -> HotspotFixture.twoDistricts(g));
         peak64 = Hotspots.run(spark, run64, peak.withTileSize(64));
         peak256 = Hotspots.run(spark, run256, peak.withTileSize(256));
-        uniform = Hotspots.run(spark, run256, HotspotOptions.of("mean").withDistance(15, Weights.BINARY));
-        noise = Hotspots.run(spark, run256, HotspotOptions.of("night_min").withDistance(15, Weights.BINARY));
+        uniform = Hotspots.run(spark, run256, HotspotOptions.of("mean").withCellSize(ACELL).withDistance(20, Weights.BINARY));
+        noise = Hotspots.run(spark, run256, HotspotOptions.of("night_min").withCellSize(ACELL)
+                .withDistance(20, Weights.BINARY));
         scenario = Hotspots.run(spark, run256, HotspotOptions.of("delta_peak").withScenario("cool_roofs")
-                .withDistance(15, Weights.INVERSE_DISTANCE));
-        HotspotOptions cool = HotspotOptions.of("peak").withScenario("cool_roofs").withDistance(15, Weights.BINARY);
+                .withCellSize(ACELL).withDistance(20, Weights.INVERSE_DISTANCE));
+        HotspotOptions cool = peak.withScenario("cool_roofs");
         scenarioPeak = Hotspots.run(spark, run256, cool);
+        change = spark.read().parquet(run256.resolve("scenarios/cool_roofs/hotspots/peak/programme_change").toString())
+                .orderBy("district_id").collectAsList();              // before the next run replaces the folder
         scenarioOwn = Hotspots.run(spark, run256, cool.withReference(HotspotOptions.Reference.SCENARIO)
                 .withReplace(true));
+        moran = Hotspots.run(spark, run64, HotspotOptions.of("degree_hours").withCellSize(ACELL));
+        copyTree(run64.resolve("hotspots/peak"), dir.resolve("peak64-copy"));   // before the BY run replaces it
+        byPeak = Hotspots.run(spark, run64, peak.withFdrMethod(FalseDiscovery.BY).withReplace(true));
+    }
+
+    static void copyTree(Path from, Path to) throws IOException {
+        try (var files = Files.walk(from)) {
+            for (Path f : files.toList()) {
+                Path t = to.resolve(from.relativize(f).toString());
+                if (Files.isDirectory(f)) {
+                    Files.createDirectories(t);
+                } else {
+                    Files.copy(f, t);
+                }
+            }
+        }
     }
 
     /** The manifest's districts path made absolute (the run command writes absolute paths). */
@@ -81,72 +107,91 @@ class HotspotsJobTest {
     void writesEveryOutputAndNoTemporaryFolder() {
         Path out = run256.resolve("hotspots/peak");
         assertEquals(out, peak256.outDir());
-        for (String f : List.of("zscore.tif", "class.tif", "hotspots.geojson", "hotspots_wgs84.geojson", "polygons",
-                "districts", "summary.json")) {
+        for (String f : List.of("excess_band.tif", "excess_k.tif", "qvalue.tif", "zscore.tif", "hotspots.geojson",
+                "hotspots_wgs84.geojson", "polygons", "districts", "summary.json")) {
             assertTrue(Files.exists(out.resolve(f)), f);
         }
+        assertFalse(Files.exists(out.resolve("class.tif")), "no confidence classes any more");
         assertFalse(Files.exists(run256.resolve("hotspots/.peak.partial")));
-        assertTrue(Files.exists(run256.resolve("scenarios/cool_roofs/hotspots/delta_peak/class.tif")));
-        assertTrue(Files.exists(run256.resolve("scenarios/cool_roofs/hotspots/peak/class.tif")));
+        assertTrue(Files.exists(run256.resolve("scenarios/cool_roofs/hotspots/delta_peak/excess_band.tif")));
+        assertTrue(scenarioPeak.outputs().contains("programme_change/"), scenarioPeak.outputs().toString());
     }
 
-    /** Tile size 64 (3 × 2 tiles with halos) and 256 (one tile) give byte-identical outputs. */
+    /** Tile size 64 (windows of 16 × 16 analysis cells) and 256 (one window) give byte-identical outputs. */
     @Test
     void tileSizes64And256GiveIdenticalMaps() throws IOException {
-        for (String f : List.of("zscore.tif", "class.tif", "hotspots.geojson", "hotspots_wgs84.geojson",
-                "summary.json", "polygons/part-00000.snappy.parquet", "districts/part-00000.snappy.parquet")) {
+        for (String f : List.of("zscore.tif", "excess_band.tif", "excess_k.tif", "qvalue.tif", "hotspots.geojson",
+                "hotspots_wgs84.geojson", "summary.json", "polygons/part-00000.snappy.parquet",
+                "districts/part-00000.snappy.parquet")) {
             assertArrayEquals(Files.readAllBytes(run256.resolve("hotspots/peak/" + f)),
-                    Files.readAllBytes(run64.resolve("hotspots/peak/" + f)), f);
+                    Files.readAllBytes(dir.resolve("peak64-copy/" + f)), f);
         }
-        float[] a = readZ(run64), b = readZ(run256);
-        assertArrayEquals(a, b);
-        assertEquals(peak256.classCells(), peak64.classCells());
+        assertEquals(peak256.bandCells(), peak64.bandCells());
     }
 
-    static float[] readZ(Path run) {
-        try (GeoTiffReader r = GeoTiffReader.openSingleBand(run.resolve("hotspots/peak/zscore.tif"))) {
-            return r.readFloatWindow(0, 0, HotspotFixture.W, HotspotFixture.H);
+    static int[] readBands(Path run, String rel) {
+        try (GeoTiffReader r = GeoTiffReader.openSingleBand(run.resolve(rel))) {
+            return r.readIntWindow(0, 0, r.grid().width(), r.grid().height());
         }
     }
 
-    /** The planted square is a class-3 hot spot whose polygon's area is its cell count × 25 m². */
+    /**
+     * The planted square (3 × 3 analysis cells, +4 K) is one warmer area of exactly 3600 m², its cells
+     * in the "warmer by >= 2 K" or ">= 4 K" band (+4 K sits on the 4 K edge; noise of a 20 m cell
+     * σ = 0.25 K), with a mean excess of 4 K ± 0.3 K (σ of the 9-cell mean 0.08 K; the median moves
+     * by far less).
+     */
     @Test
     void plantedHotSquareIsFound() throws IOException {
-        int[] classes;
-        try (GeoTiffReader r = GeoTiffReader.openSingleBand(run256.resolve("hotspots/peak/class.tif"))) {
-            classes = r.readIntWindow(0, 0, HotspotFixture.W, HotspotFixture.H);
-        }
-        for (int row = HotspotFixture.SQ_R0; row < HotspotFixture.SQ_R0 + HotspotFixture.SQ; row++) {
-            for (int col = HotspotFixture.SQ_C0; col < HotspotFixture.SQ_C0 + HotspotFixture.SQ; col++) {
-                assertEquals(3, classes[row * HotspotFixture.W + col], "square cell col " + col + " row " + row);
+        int[] bands = readBands(run256, "hotspots/peak/excess_band.tif");
+        int aw = 38;                                              // ⌈150 / 4⌉
+        for (int row = 12; row < 15; row++) {
+            for (int col = 10; col < 13; col++) {
+                int b = bands[row * aw + col];
+                assertTrue(b == 20 || b == 40, "square cell col " + col + " row " + row + ": " + b);
             }
         }
-        assertEquals(-128, classes[0], "no-data corner");
+        assertEquals(-128, bands[0], "no-data corner");
         Feature sq = squarePolygon(readFeatures(run256.resolve("hotspots/peak/hotspots.geojson")));
-        int cells = sq.props.path("cells").asInt();
-        assertTrue(cells >= HotspotFixture.SQ * HotspotFixture.SQ, "holds the square: " + cells);
-        assertEquals(cells * CELL_AREA, sq.polygon.getArea(), 1e-9 * cells * CELL_AREA);
-        assertEquals(sq.polygon.getArea(), sq.props.path("area_m2").asDouble(), 1e-6);
-        assertEquals(3, sq.props.path("class").asInt());
-        assertTrue(sq.props.path("mean_value").asDouble() > 42, "mean peak inside: " + sq.props.path("mean_value"));
+        assertEquals(SQ_CELLS, sq.props.path("cells").asInt());
+        assertEquals(3600.0, sq.polygon.getArea(), 1e-6);
+        assertEquals(3600.0, sq.props.path("area_m2").asDouble(), 1e-6);
+        assertEquals("warmer", sq.props.path("kind").asText());
+        assertTrue(sq.props.path("label").asText().startsWith("warmer by >= "), sq.props.toString());
+        assertEquals(4.0, sq.props.path("mean_excess_k").asDouble(), 0.3);
+        assertTrue(sq.props.path("max_q").asDouble() <= 0.05);
         assertEquals("W1", sq.props.path("district_id").asText(), "the square lies west of column 75");
         assertEquals("Westbank", sq.props.path("district_name").asText());
+        assertEquals(2, peak256.hotPolygons(), "the square and the ring, nothing else");
+        assertEquals(0, peak256.coldPolygons());
+        assertEquals((SQ_CELLS + RING_CELLS) * ACELL_AREA, peak256.hotAreaM2(), 1e-6);
     }
 
-    /** Every polygon of both files is a valid JTS polygon with area = cells × cell area. */
+    /**
+     * Every polygon of both files is a valid JTS polygon with area = cells × 400 m²; the ring keeps
+     * its hole; the order is by area × |mean excess|, largest first.
+     */
     @Test
     void geoJsonReadsBackWithJacksonAndJts() throws IOException {
         List<Feature> grid = readFeatures(run256.resolve("hotspots/peak/hotspots.geojson"));
         List<Feature> wgs = readFeatures(run256.resolve("hotspots/peak/hotspots_wgs84.geojson"));
         assertEquals(peak256.hotPolygons() + peak256.coldPolygons(), grid.size());
         assertEquals(grid.size(), wgs.size());
-        boolean holes = false;
-        for (Feature f : grid) {
+        double previous = Double.POSITIVE_INFINITY;
+        for (int i = 0; i < grid.size(); i++) {
+            Feature f = grid.get(i);
             assertTrue(f.polygon.isValid(), "valid: " + f.props);
-            assertEquals(f.props.path("cells").asInt() * CELL_AREA, f.polygon.getArea(), 1e-6, f.props.toString());
-            holes |= f.polygon.getNumInteriorRing() > 0;
+            assertEquals(f.props.path("cells").asInt() * ACELL_AREA, f.polygon.getArea(), 1e-6, f.props.toString());
+            assertEquals(i + 1, f.props.path("id").asInt());
+            double key = f.props.path("area_x_excess_m2k").asDouble();
+            assertEquals(f.polygon.getArea() * Math.abs(f.props.path("mean_excess_k").asDouble()), key, 1e-6 * key);
+            assertTrue(key <= previous, "sorted by area × excess");
+            previous = key;
         }
-        assertTrue(holes, "the planted ring is a polygon with a hole");
+        Feature ring = grid.get(0);
+        assertEquals(1, ring.polygon.getNumInteriorRing(), "the ring (the largest) keeps its hole: " + ring.props);
+        assertEquals(1, ring.props.path("holes").asInt());
+        assertEquals(RING_CELLS * ACELL_AREA, ring.polygon.getArea(), 1e-6);
         JsonNode root = new ObjectMapper().readTree(run256.resolve("hotspots/peak/hotspots.geojson").toFile());
         assertEquals("urn:ogc:def:crs:EPSG::32632", root.path("crs").path("properties").path("name").asText());
         JsonNode wroot = new ObjectMapper().readTree(run256.resolve("hotspots/peak/hotspots_wgs84.geojson").toFile());
@@ -157,8 +202,8 @@ class HotspotsJobTest {
             for (int h = 0; h < f.polygon.getNumInteriorRing(); h++) {
                 assertFalse(Orientation.isCCW(f.polygon.getInteriorRingN(h).getCoordinates()), "holes clockwise");
             }
-            // UTM zone 32 (central meridian 9° E): eastings 500 000–500 750 m lie within 0.01° east of
-            // 9°; northings 5 019 450–5 020 000 m lie near 45.3° N (EPSG:32632 definition).
+            // UTM zone 32 (central meridian 9° E): eastings 500 000–500 760 m lie within 0.01° east of
+            // 9°; northings near 5 020 000 m lie near 45.3° N (EPSG:32632 definition).
             for (Coordinate c : f.polygon.getCoordinates()) {
                 assertTrue(c.x >= 9.0 && c.x < 9.01, "longitude " + c.x);
                 assertTrue(c.y > 45.2 && c.y < 45.4, "latitude " + c.y);
@@ -176,73 +221,101 @@ class HotspotsJobTest {
     }
 
     @Test
-    void uniformFieldHasNoSignificantCells() {
-        long significant = uniform.classCells().entrySet().stream().filter(e -> e.getKey() != 0)
-                .mapToLong(Map.Entry::getValue).sum();
-        assertEquals(0, significant);
-        assertEquals(uniform.validCells(), uniform.classCells().get(0));
+    void uniformFieldHasNoArea() {
+        assertEquals(uniform.validCells(), uniform.bandCells().get(0));
         assertEquals(0.0, uniform.sd());
         assertEquals(0, uniform.hotPolygons() + uniform.coldPolygons());
         assertTrue(uniform.notes().stream().anyMatch(n -> n.contains("same value")), uniform.notes().toString());
     }
 
-    /** Spatially independent noise: Benjamini–Hochberg leaves no cell significant. */
+    /** Spatially independent noise: nothing is distinct. */
     @Test
-    void pureNoiseHasNoSignificantCells() {
-        assertEquals(noise.validCells(), noise.classCells().get(0), noise.classCells().toString());
+    void pureNoiseHasNoArea() {
+        assertEquals(noise.validCells(), noise.bandCells().get(0), noise.bandCells().toString());
+        assertEquals(0, noise.hotPolygons() + noise.coldPolygons());
     }
 
     @Test
-    void scenarioDeltaFindsTheRemovedSquareAsColdSpot() {
-        // cool_roofs = noise without the square, so delta = −4 on the square and 0 elsewhere.
+    void scenarioDeltaFindsTheRemovedSquareAsCooler() {
+        // cool_roofs = noise without the square and ring, so delta = −4 there and 0 elsewhere.
         assertEquals("K", scenario.unit());
-        assertTrue(scenario.coldPolygons() >= 1);
-        assertEquals(0, scenario.hotPolygons(), "the delta is 0 or −4: nothing hot");
-        assertTrue(scenario.classCells().get(-3) >= HotspotFixture.SQ * HotspotFixture.SQ);
+        assertEquals(2, scenario.coldPolygons());
+        assertEquals(0, scenario.hotPolygons(), "the delta is 0 or −4: nothing warmer");
+        assertEquals(SQ_CELLS + RING_CELLS, scenario.bandCells().get(-40));
+        assertNull(scenario.hotAreaRemovedM2(), "a difference map has nothing to compare with");
     }
 
     /**
-     * The scenario (the noise without the square and ring) against the run's mean and S: the
-     * planted hot spots are gone, and the area removed is the run's hot area minus the scenario's.
+     * The scenario (the noise without the square and ring) against the run's median and S: the
+     * planted hot areas are gone; the area removed is the run's hot area, per district the square
+     * (west) and the ring (east), and nothing is added.
      */
     @Test
-    void scenarioAgainstTheRunReportsTheHotAreaRemoved() {
+    void scenarioAgainstTheRunReportsTheHotAreaRemovedPerDistrict() {
         assertEquals("baseline", scenarioPeak.reference());
-        assertEquals(peak256.mean(), scenarioPeak.mean(), "the run's mean is the reference");
-        assertEquals(0L, scenarioPeak.classCells().get(3), "no 99 % hot cell is left: " + scenarioPeak.classCells());
-        assertNotNull(scenarioPeak.hotAreaRemovedM2());
-        assertEquals(peak256.hotAreaM2() - scenarioPeak.hotAreaM2(), scenarioPeak.hotAreaRemovedM2(), 1e-9);
-        assertTrue(scenarioPeak.hotAreaRemovedM2() > 2 * HotspotFixture.SQ * HotspotFixture.SQ * CELL_AREA,
-                "square and ring removed: " + scenarioPeak.hotAreaRemovedM2());
-        // Against its own mean the scenario is plain noise: its area is not compared.
+        assertEquals(peak256.referenceK(), scenarioPeak.referenceK(), "the run's median is the reference");
+        assertEquals(0, scenarioPeak.hotPolygons(), scenarioPeak.bandCells().toString());
+        assertEquals(peak256.hotAreaM2(), scenarioPeak.hotAreaRemovedM2(), 1e-9);
+        assertEquals(2, change.size());
+        assertEquals("E1", change.get(0).getAs("district_id"));
+        assertEquals(RING_CELLS * ACELL_AREA, change.get(0).<Double>getAs("removed_m2"), 1e-9);
+        assertEquals(SQ_CELLS * ACELL_AREA, change.get(1).<Double>getAs("removed_m2"), 1e-9);
+        assertEquals(0.0, change.get(0).<Double>getAs("added_m2") + change.get(1).<Double>getAs("added_m2"), 0.0);
+        // Against its own median the scenario is plain noise: its area is not compared.
         assertEquals("own", scenarioOwn.reference());
         assertNull(scenarioOwn.hotAreaRemovedM2());
         assertTrue(scenarioOwn.notes().stream().anyMatch(n -> n.contains("not comparable")), scenarioOwn.notes().toString());
     }
 
+    /** Without a distance the band is the peak of Moran's I z-score, at least one analysis cell. */
     @Test
-    void parquetTablesMatchTheGeoJsonAndTheClassMap() {
-        Path out = run64.resolve("hotspots/peak");
+    void defaultDistanceIsMoransPeak() throws IOException {
+        assertEquals("moran_peak", moran.distanceRule());
+        assertTrue(moran.distanceM() >= ACELL);
+        JsonNode s = new ObjectMapper().readTree(moran.outDir().resolve("summary.json").toFile());
+        double best = Double.NEGATIVE_INFINITY, at = 0;
+        for (JsonNode m : s.path("moran_scan")) {
+            if (m.path("z").asDouble() > best) {
+                best = m.path("z").asDouble();
+                at = m.path("distance_m").asDouble();
+            }
+        }
+        assertEquals(12, s.path("moran_scan").size());
+        assertEquals(at, moran.distanceM(), 0.0);
+        assertEquals(at, s.path("distance_m").asDouble(), 0.0);
+    }
+
+    /** BY (Benjamini & Yekutieli 2001) never marks more cells than BH on the same data. */
+    @Test
+    void byMarksNoMoreThanBh() {
+        long bh = peak256.bandCells().entrySet().stream().filter(e -> e.getKey() != 0).mapToLong(e -> e.getValue()).sum();
+        long by = byPeak.bandCells().entrySet().stream().filter(e -> e.getKey() != 0).mapToLong(e -> e.getValue()).sum();
+        assertTrue(by <= bh, by + " > " + bh);
+        assertEquals("by", byPeak.fdrMethod());
+    }
+
+    @Test
+    void parquetTablesMatchTheGeoJsonAndTheBandMap() {
+        Path out = run256.resolve("hotspots/peak");
         List<Row> polys = spark.read().parquet(out.resolve("polygons").toString()).orderBy("id").collectAsList();
-        assertEquals(peak64.hotPolygons() + peak64.coldPolygons(), polys.size());
-        double area = polys.stream().filter(r -> r.<Integer>getAs("class") > 0)
+        assertEquals(peak256.hotPolygons() + peak256.coldPolygons(), polys.size());
+        double area = polys.stream().filter(r -> r.<String>getAs("kind").equals("warmer"))
                 .mapToDouble(r -> r.<Double>getAs("area_m2")).sum();
-        assertEquals(peak64.hotAreaM2(), area, 1e-6);
+        assertEquals(peak256.hotAreaM2(), area, 1e-6);
         // Westbank and Eastfield; no row for "outside", as the only cells outside are no data.
         List<Row> districts = spark.read().parquet(out.resolve("districts").toString())
                 .orderBy("district_id").collectAsList();
         assertEquals(2, districts.size());
         assertEquals("E1", districts.get(0).getAs("district_id"));
-        long hot = districts.stream().mapToLong(r -> r.<Long>getAs("hot_cells")).sum();
-        long hotCells = peak64.classCells().entrySet().stream().filter(e -> e.getKey() > 0)
-                .mapToLong(Map.Entry::getValue).sum();
-        assertEquals(hotCells, hot);
+        double hot = districts.stream().mapToDouble(r -> r.<Double>getAs("hot_area_m2")).sum();
+        assertEquals(peak256.hotAreaM2(), hot, 1e-9);
         long cells = districts.stream().mapToLong(r -> r.<Long>getAs("cells")).sum();
-        assertEquals(peak64.validCells(), cells);
-        Row west = districts.get(1);
-        assertEquals(75L * HotspotFixture.H - 54, west.<Long>getAs("cells"), "75 columns less the no-data corner");
-        assertEquals(west.<Long>getAs("hot_cells") * CELL_AREA, west.<Double>getAs("hot_area_m2"), 1e-9);
-        assertTrue(west.<Long>getAs("hot_99_cells") >= HotspotFixture.SQ * HotspotFixture.SQ);
+        assertEquals(peak256.validCells(), cells);
+        // Data area: 150 × 110 cells of 25 m² less the 54 no-data cells.
+        double data = districts.stream().mapToDouble(r -> r.<Double>getAs("area_m2")).sum();
+        assertEquals((150 * 110 - 54) * 25.0, data, 1e-6);
+        assertEquals(SQ_CELLS * ACELL_AREA, districts.get(1).<Double>getAs("hot_area_m2"), 1e-9);
+        assertEquals(4.0, districts.get(1).<Double>getAs("hot_mean_excess_k"), 0.3);
     }
 
     static final class Feature {
@@ -283,7 +356,7 @@ class HotspotsJobTest {
         return gf.createLinearRing(c);
     }
 
-    /** The class-3 polygon that covers the square's centre. */
+    /** The polygon that covers the square's centre. */
     static Feature squarePolygon(List<Feature> features) {
         double x = HotspotFixture.X0 + (HotspotFixture.SQ_C0 + HotspotFixture.SQ / 2.0) * HotspotFixture.CELL;
         double y = HotspotFixture.Y0 - (HotspotFixture.SQ_R0 + HotspotFixture.SQ / 2.0) * HotspotFixture.CELL;
@@ -343,28 +416,33 @@ class HotspotsJobTest {
                 "SELECT SUM(OGR_GEOM_AREA) AS a, SUM(cells) AS c FROM hotspots", "hotspots.geojson");
         double a = Double.parseDouble(sum.replaceAll("(?s).*a \\(Real\\) = ([0-9.eE+-]+).*", "$1"));
         double c = Double.parseDouble(sum.replaceAll("(?s).*c \\([A-Za-z0-9]+\\) = ([0-9.eE+-]+).*", "$1"));
-        assertEquals(c * CELL_AREA, a, 1e-6 * a, sum);
+        assertEquals(c * ACELL_AREA, a, 1e-6 * a, sum);
     }
 
-    /** gdalinfo sees the class map's type, no-data value and code table, and the z-score map's no-data. */
+    /** gdalinfo sees the band map's type, no-data value, coding and grid, and the float maps' no-data. */
     @Test
-    void gdalinfoReadsTheCodeTable() throws Exception {
+    void gdalinfoReadsTheCoding() throws Exception {
         gdal("gdalinfo");
         Path copy = Files.createTempDirectory(dir, "gdal");
         Path out = run256.resolve("hotspots/peak");
-        Files.copy(out.resolve("class.tif"), copy.resolve("class.tif"));
-        Files.copy(out.resolve("zscore.tif"), copy.resolve("zscore.tif"));
-        String info = exec(copy, "gdalinfo", "class.tif");
+        for (String f : List.of("excess_band.tif", "qvalue.tif", "excess_k.tif")) {
+            Files.copy(out.resolve(f), copy.resolve(f));
+        }
+        String info = exec(copy, "gdalinfo", "excess_band.tif");
         assertTrue(info.contains("Type=Int16"), info);
         assertTrue(info.contains("NoData Value=-128"), info);
-        assertTrue(info.contains("CLASS_3=hot spot, 99 % confidence"), info);
-        assertTrue(info.contains("CLASS_-3=cold spot, 99 % confidence"), info);
-        assertTrue(info.contains("STATISTIC=peak"), info);
-        assertTrue(info.contains("32632"), info);
-        String z = exec(copy, "gdalinfo", "zscore.tif");
-        assertTrue(z.contains("Type=Float32"), z);
-        assertTrue(z.contains("NoData Value=-9999"), z);
-        assertTrue(z.contains("WEIGHTS=binary"), z);
+        assertTrue(info.contains("BAND_40=warmer by >= 4 K"), info);
+        assertTrue(info.contains("BAND_-10=cooler by >= 1 K"), info);
+        assertTrue(info.contains("BAND_0=not distinct"), info);
+        assertTrue(info.contains("ANALYSIS_CELL_M=20"), info);
+        assertTrue(info.contains("Pixel Size = (20.000000000000000,-20.000000000000000)"), info);
+        assertTrue(info.contains("Size is 38, 28"), info);
+        assertFalse(info.contains("confidence"), info);
+        for (String f : List.of("qvalue.tif", "excess_k.tif")) {
+            String z = exec(copy, "gdalinfo", f);
+            assertTrue(z.contains("Type=Float32") && z.contains("NoData Value=-9999"), z);
+            assertTrue(z.contains("FDR_METHOD=Benjamini-Hochberg 1995"), z);
+        }
     }
 
     @Test
@@ -372,9 +450,12 @@ class HotspotsJobTest {
         JsonNode s = new ObjectMapper().readTree(run256.resolve("hotspots/peak/summary.json").toFile());
         assertEquals("peak", s.path("statistic").asText());
         assertEquals(peak256.hotAreaM2(), s.path("hot_area_m2").asDouble(), 1e-9);
-        assertEquals(HotspotFixture.W * HotspotFixture.H - 54, s.path("global").path("valid_cells").asLong());
+        assertEquals(38 * 28 - 2, s.path("global").path("valid_cells").asLong(), "two analysis cells are all no data");
         assertEquals("own", s.path("reference").asText());
-        assertNull(scenario.hotAreaRemovedM2(), "a difference map has nothing to compare with");
-        assertNotNull(s.path("p_thresholds").path("class_3"));
+        assertEquals("given", s.path("distance_rule").asText());
+        assertEquals(20.0, s.path("analysis_cell_m").asDouble(), 0.0);
+        assertEquals("warmer by >= 2 K", s.path("coding").path("BAND_20").asText());
+        assertEquals(peak256.hotAreaM2() / peak256.cityAreaM2(), s.path("hot_share").asDouble(), 1e-12);
+        assertEquals(RING_CELLS * ACELL_AREA, s.path("largest_polygon_m2").asDouble(), 1e-9);
     }
 }

@@ -159,14 +159,16 @@ final class FakeRun {
         if (o.hotspots()) {
             Path hs = Files.createDirectories(dir.resolve("hotspots/peak"));
             int[] cls = new int[o.width() * o.height()];
-            float[] z = new float[cls.length];
+            float[] ex = new float[cls.length];
             for (int i = 0; i < cls.length; i++) {
                 float p = peak[i];
-                z[i] = p == NODATA ? NODATA : (p - 40) / 3f;
-                cls[i] = p == NODATA ? -9999 : Math.max(-3, Math.min(3, Math.round((p - 40) / 4f)));
+                ex[i] = p == NODATA ? NODATA : p - 40;
+                int a = (int) Math.abs(ex[i]);
+                int band = a >= 4 ? 40 : a >= 2 ? 20 : a >= 1 ? 10 : 0;
+                cls[i] = p == NODATA ? -128 : ex[i] < 0 ? -band : band;
             }
-            GeoTiffWriter.writeInt(hs.resolve("class.tif"), g, GeoTiffWriter.IntType.INT16, cls, OptionalInt.of(-9999));
-            GeoTiffWriter.writeFloat(hs.resolve("zscore.tif"), g, z, NODATA);
+            GeoTiffWriter.writeInt(hs.resolve("excess_band.tif"), g, GeoTiffWriter.IntType.INT16, cls, OptionalInt.of(-128));
+            GeoTiffWriter.writeFloat(hs.resolve("excess_k.tif"), g, ex, NODATA);
             double x0 = 500_000, y0 = 5_020_000, wM = o.width() * o.cellM(), hM = o.height() * o.cellM();
             Files.writeString(hs.resolve("polygons.geojson"), """
                     {"type": "FeatureCollection", "features": [

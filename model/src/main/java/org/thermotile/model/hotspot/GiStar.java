@@ -45,6 +45,18 @@ public final class GiStar {
      */
     public static void zScores(double[] window, int coreWidth, int coreHeight, DistanceBand band,
             GlobalMoments global, double[] z) {
+        zScores(window, coreWidth, coreHeight, band, global, z, null);
+    }
+
+    /**
+     * As {@link #zScores(double[], int, int, DistanceBand, GlobalMoments, double[])}, and also the
+     * band's weighted local mean x̄_i = Σ_j w_ij x_j / Σ_j w_ij over valid neighbours [unit of the
+     * field] (the quantity Gi* tests against x̄; NaN where the core cell is no data).
+     *
+     * @param localMean out, or null
+     */
+    public static void zScores(double[] window, int coreWidth, int coreHeight, DistanceBand band,
+            GlobalMoments global, double[] z, double[] localMean) {
         int rc = band.radiusCols(), rr = band.radiusRows();
         int winW = coreWidth + 2 * rc;
         int winH = coreHeight + 2 * rr;
@@ -94,6 +106,9 @@ public final class GiStar {
                 int i = r * coreWidth + c;
                 double xi = window[(r + rr) * winW + c + rc];
                 z[i] = Double.isNaN(xi) ? Double.NaN : zScore(sumWX[i], sumW[i], sumW2[i], n, mean, s);
+                if (localMean != null) {
+                    localMean[i] = Double.isNaN(xi) ? Double.NaN : sumWX[i] / sumW[i];
+                }
             }
         }
     }

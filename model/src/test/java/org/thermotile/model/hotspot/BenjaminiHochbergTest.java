@@ -39,20 +39,13 @@ class BenjaminiHochbergTest {
     }
 
     @Test
-    void classesFromTheExample() {
-        HotspotClass.Thresholds t = HotspotClass.Thresholds.of(NEUHAUS, 0.10);
-        assertEquals(0.0459, t.p90());
-        assertEquals(0.0095, t.p95());
-        assertEquals(0.0019, t.p99());
-        assertEquals(3, HotspotClass.code(4.0, 0.0001, t));
-        assertEquals(-2, HotspotClass.code(-2.6, 0.0095, t));
-        assertEquals(1, HotspotClass.code(2.3, 0.0201, t));
-        assertEquals(0, HotspotClass.code(1.0, 0.3240, t));
-        // Q = 0.05 caps the 90 % class at the 5 % threshold.
-        HotspotClass.Thresholds q5 = HotspotClass.Thresholds.of(NEUHAUS, 0.05);
-        assertEquals(0, HotspotClass.code(2.3, 0.0201, q5));
-        assertEquals(2, HotspotClass.code(2.6, 0.0095, q5));
-        assertThrows(IllegalArgumentException.class, () -> HotspotClass.Thresholds.of(NEUHAUS, 0.2));
+    void qValuesOfTheExampleByHand() {
+        // q₍₄₎ = min_{j ≥ 4} 15 p₍ⱼ₎ / j = 15 · 0.0095 / 4 = 0.035625 (j = 5 gives 0.0603, larger);
+        // q₍₅₎ = min(15·0.0201/5, 15·0.0278/6, 15·0.0298/7, …) = 0.0603 > 0.05: four pass at 0.05.
+        double[] q = FalseDiscovery.BH.qValues(NEUHAUS);
+        assertEquals(0.035625, q[3], 1e-12);
+        assertEquals(0.0603, q[4], 1e-12);
+        assertThrows(IllegalArgumentException.class, () -> BenjaminiHochberg.rejections(NEUHAUS, 1.5));
     }
 
     @Test

@@ -1,0 +1,56 @@
+package org.thermotile.jobs.city;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertThrows;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import java.io.IOException;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import org.thermotile.jobs.cli.UserInputException;
+import org.thermotile.jobs.config.RunFileReader;
+import org.thermotile.jobs.hotspots.HotspotOptions;
+import org.thermotile.model.hotspot.FalseDiscovery;
+
+/** The run file's hotspots block: new keys read, bad values named with the fix (5 m cells). */
+class HotspotsBlockTest {
+    @TempDir
+    Path dir;
+
+    HotspotsBlock block(String yaml) throws IOException {
+        Path rf = CityFixture.write(dir, 256, "");
+        Files.writeString(rf, Files.readString(rf) + "hotspots: " + yaml + "\n");
+        return HotspotsBlock.of(RunFileReader.read(rf), CityFixture.CELL);
+    }
+
+    String error(String yaml) {
+        return assertThrows(UserInputException.class, () -> block(yaml)).getMessage();
+    }
+
+    @Test
+    void readsTheNewKeys() throws IOException {
+        HotspotsBlock b = block("{cell_size_m: 20, fdr: 0.05, fdr_method: by, min_excess_k: 2, min_area_m2: 800}");
+        HotspotOptions o = b.options("peak", 256);
+        assertEquals(20.0, o.cellSizeM());
+        assertTrue(Double.isNaN(o.distanceM()), "no distance: the Moran's I rule");
+        assertEquals(FalseDiscovery.BY, o.fdrMethod());
+        assertEquals(2.0, o.minExcessK());
+        assertEquals(800.0, o.minAreaM2());
+    }
+
+    @Test
+    void badValuesNameTheKeyAndTheFix() {
+        String c = error("{cell_size_m: 2}");
+        assertTrue(c.contains("hotspots.cell_size_m: 2 m is less than the simulation cell (5.0 m)") && c.contains("Fix"), c);
+        String d = error("{cell_size_m: 20, distance_m: 10}");
+        assertTrue(d.contains("hotspots.distance_m: 10 m is less than one analysis cell (20.0 m)") && d.contains("Fix"), d);
+        String dd = error("{distance_m: 30}");
+        assertTrue(dd.contains("one analysis cell (40.0 m)"), dd);
+        String m = error("{fdr_method: holm}");
+        assertTrue(m.contains("use bh or by"), m);
+        String e = error("{min_excess_k: 0}");
+        assertTrue(e.contains("hotspots.min_excess_k") && e.contains("Fix"), e);
+    }
+}

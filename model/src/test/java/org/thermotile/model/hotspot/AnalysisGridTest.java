@@ -1,0 +1,93 @@
+package org.thermotile.model.hotspot;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertThrows;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import java.util.SplittableRandom;
+import org.junit.jupiter.api.Test;
+
+class AnalysisGridTest {
+
+    /**
+     * Conservation of the area-weighted total (the defining property of an area-weighted mean):
+     * Σ_K x̄_K A_K = Σ_i a_i x_i, on a seeded raster of odd size (partial edge cells) with 10 %
+     * no data. Tolerance: double rounding of ~900 additions, 1e-12 relative.
+     */
+    @Test
+    void aggregationPreservesTheAreaWeightedTotal() {
+        SplittableRandom rnd = new SplittableRandom(16);
+        for (int f : new int[] {1, 3, 10}) {
+            int w = 37, h = 23;
+            float[] v = new float[w * h];
+            double cellArea = 16.0;                 // 4 m cells
+            double total = 0, area = 0;
+            for (int i = 0; i < v.length; i++) {
+                v[i] = rnd.nextDouble() < 0.1 ? Float.NaN : (float) (300 + 20 * rnd.nextDouble());
+                if (!Float.isNaN(v[i])) {
+                    total += cellArea * v[i];
+                    area += cellArea;
+                }
+            }
+            AnalysisGrid g = AnalysisGrid.aggregate(v, w, h, cellArea, f);
+            assertEquals((w + f - 1) / f, g.width());
+            assertEquals((h + f - 1) / f, g.height());
+            double agg = 0, aggArea = 0;
+            for (int k = 0; k < g.mean().length; k++) {
+                if (!Double.isNaN(g.mean()[k])) {
+                    agg += g.mean()[k] * g.validAreaM2()[k];
+                    aggArea += g.validAreaM2()[k];
+                }
+            }
+            assertEquals(total, agg, 1e-12 * total, "f = " + f);
+            assertEquals(area, aggArea, 0.0, "f = " + f);
+        }
+    }
+
+    @Test
+    void partialEdgeCellsAndNoDataLowerTheCoverage() {
+        // 5 × 1 raster, f = 2: cells {0,1}, {2,3}, {4}; cell 3 is no data.
+        float[] v = {1, 3, 10, Float.NaN, 7};
+        AnalysisGrid g = AnalysisGrid.aggregate(v, 5, 1, 1.0, 2);
+        assertEquals(3, g.width());
+        assertEquals(1, g.height());
+        assertEquals(2.0, g.mean()[0], 0.0);
+        assertEquals(10.0, g.mean()[1], 0.0);
+        assertEquals(7.0, g.mean()[2], 0.0);
+        assertEquals(0.5, g.coverage()[0], 0.0);     // 2 of 4 cells of a full 2 × 2 cell (one row only)
+        assertEquals(0.25, g.coverage()[1], 0.0);
+        assertEquals(0.25, g.coverage()[2], 0.0);
+        AnalysisGrid empty = AnalysisGrid.aggregate(new float[] {Float.NaN, Float.NaN}, 2, 1, 1.0, 2);
+        assertTrue(Double.isNaN(empty.mean()[0]));
+        assertEquals(0.0, empty.coverage()[0], 0.0);
+    }
+
+    @Test
+    void factorMustBeAWholeMultipleOfAtLeastOne() {
+        assertEquals(10, AnalysisGrid.factor(40, 4));
+        assertEquals(1, AnalysisGrid.factor(4, 4));
+        assertThrows(IllegalArgumentException.class, () -> AnalysisGrid.factor(2, 4));
+        assertThrows(IllegalArgumentException.class, () -> AnalysisGrid.factor(30, 4));
+    }
+
+    @Test
+    void zoneMeansAreAreaWeighted() {
+        float[] v = {1, 2, 3, Float.NaN, 5, 6};
+        int[] zone = {0, 0, 1, 1, -1, 1};
+        double[][] m = AnalysisGrid.zoneMeans(v, zone, 2, 4.0);
+        assertEquals(1.5, m[0][0], 0.0);
+        assertEquals(4.5, m[0][1], 0.0);
+        assertEquals(8.0, m[1][0], 0.0);
+        assertEquals(8.0, m[1][1], 0.0);
+    }
+
+    @Test
+    void weightedMedianByHand() {
+        // means 1, 2, 9 with areas 1, 1, 3: half the area (2.5) is reached only at 9.
+        AnalysisGrid g = new AnalysisGrid(1, 3, 1, new double[] {9, 1, 2}, new double[] {3, 1, 1}, new double[3]);
+        assertEquals(9.0, g.weightedMedian(), 0.0);
+        // equal areas: the lower median of 1, 2, 9, 10 is 2.
+        AnalysisGrid e = new AnalysisGrid(1, 4, 1, new double[] {10, 1, 9, 2}, new double[] {1, 1, 1, 1}, new double[4]);
+        assertEquals(2.0, e.weightedMedian(), 0.0);
+    }
+}
