@@ -85,6 +85,7 @@ public final class Ingest {
      * The inputs on the working grid.
      *
      * @param grid      the working grid
+     * @param rasterGrid the working grid as a {@link RasterGrid} (the land cover's own when {@code unchanged})
      * @param landCover the land cover to run on: the original file when {@code unchanged}, else the
      *                  prepared file
      * @param heights   heights on the working grid (original or prepared), or null
