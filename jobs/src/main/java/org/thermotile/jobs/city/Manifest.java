@@ -37,6 +37,9 @@ final class Manifest {
         }
         root.set("run_file", p.run().toTree());
         putVersionsAndGrid(root, p);
+        if (p.ingest() != null) {
+            p.ingest().writeTo(root.putObject("working_grid"));   // how the inputs were put on the grid
+        }
         ObjectNode sim = root.putObject("simulation");
         sim.put("cells", s.cells());
         sim.put("hours", p.spec().forcing().hours() - 1);

@@ -23,23 +23,25 @@ import org.thermotile.jobs.io.raster.RasterGrid;
  * @param plan          the baseline and scenarios to run (see {@link RunPreparer#prepare})
  * @param period        the name of this run's entry of the weather axis ({@code sweep.periods}),
  *                      or null for a run of one period
+ * @param ingest        how the inputs were put on the working grid (grid, resampling, mosaic, counts)
  */
 public record PreparedRun(RunFile run, RasterGrid grid, TileJobSpec spec, List<TileSpec> tiles,
         List<String> paletteLabels, List<String> districtNames,
         Map<String, org.thermotile.model.materials.Material> knownMaterials, Map<Integer, Long> codeCounts, Map<Integer, Long> fallbackCodes,
         Map<String, String> inputFiles, long[] sampleEpochSeconds, long[] hourlyEpochSeconds,
-        List<String> notes, ScenarioPlanner.Plan plan, String period) {
+        List<String> notes, ScenarioPlanner.Plan plan, String period,
+        org.thermotile.jobs.ingest.IngestReport ingest) {
 
     /** This run with its scenarios resolved (see {@link ScenarioPlanner#plan}). */
     public PreparedRun withPlan(ScenarioPlanner.Plan plan) {
         return new PreparedRun(run, grid, spec, tiles, paletteLabels, districtNames, knownMaterials, codeCounts,
-                fallbackCodes, inputFiles, sampleEpochSeconds, hourlyEpochSeconds, notes, plan, period);
+                fallbackCodes, inputFiles, sampleEpochSeconds, hourlyEpochSeconds, notes, plan, period, ingest);
     }
 
     /** This run as the entry {@code name} of a weather axis. */
     PreparedRun withPeriod(String name) {
         return new PreparedRun(run, grid, spec, tiles, paletteLabels, districtNames, knownMaterials, codeCounts,
-                fallbackCodes, inputFiles, sampleEpochSeconds, hourlyEpochSeconds, notes, plan, name);
+                fallbackCodes, inputFiles, sampleEpochSeconds, hourlyEpochSeconds, notes, plan, name, ingest);
     }
 
     /** Cells with a material. */

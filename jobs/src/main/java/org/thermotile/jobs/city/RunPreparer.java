@@ -122,7 +122,7 @@ public final class RunPreparer {
             List<String> notes, Map<String, String> inputs, Material[] palette, List<String> labels, int[] lut,
             List<org.locationtech.jts.geom.Geometry> districts, List<String> districtNames,
             Map<String, Material> known, GeometryBlock geometry, String heights, int tileSize, float[] heightGrid,
-            int[] cellPalette) {
+            int[] cellPalette, String taskLandCover, org.thermotile.jobs.ingest.IngestReport ingest) {
     }
 
     /** Reads and checks the land cover, heights, districts, materials and class table. */
@@ -130,8 +130,9 @@ public final class RunPreparer {
         List<String> notes = new ArrayList<>();
         Map<String, String> inputs = new LinkedHashMap<>();
         RunFile.Inputs in = run.inputs();
-        Path landCover = localPath(in.landCover(), "inputs.land_cover");
-        inputs.put("land_cover", location(in.landCover(), landCover));
+        org.thermotile.jobs.ingest.Ingest.Prepared ing = ingest(run, inputs);
+        Path landCover = ing.landCover();
+        String taskLandCover = ing.unchanged() ? inputs.get("land_cover") : landCover.toString();
 
         RasterGrid grid;
         Double noData;
@@ -178,8 +179,7 @@ public final class RunPreparer {
             Arrays.fill(heightGrid, Float.NaN);
         }
         if (in.heights() != null) {
-            Path heights = localPath(in.heights(), "inputs.heights");
-            inputs.put("heights", location(in.heights(), heights));
+            Path heights = ing.heights();
             try (GeoTiffReader h = GeoTiffReader.openSingleBand(heights)) {
                 grid.differenceFrom(h.grid()).ifPresent(d -> {
                     throw new UserInputException(heights + ": its grid differs from the land cover's ("
@@ -314,8 +314,61 @@ public final class RunPreparer {
                 List.copyOf(labels), lut, districts == null ? List.of() : districts.geometries(),
                 districts == null ? List.of() : districts.districts().stream().map(Districts.District::name).toList(),
                 Map.copyOf(known), geometry,
-                in.heights() == null ? null : location(in.heights(), localPath(in.heights(), "inputs.heights")),
-                tileSize, heightGrid, cellPalette);
+                in.heights() == null ? null : ing.heights().equals(localPath(in.heights(), "inputs.heights"))
+                        ? location(in.heights(), ing.heights()) : ing.heights().toString(),
+                tileSize, heightGrid, cellPalette, taskLandCover, ing.report());
+    }
+
+    /**
+     * The land cover and heights on the run's working grid ({@code grid:}; see
+     * {@link org.thermotile.jobs.ingest.Ingest}), every tile recorded in {@code inputs} for the
+     * manifest ({@code land_cover}, {@code land_cover[1]}, …). Prepared rasters, when any are
+     * needed, go to a temporary folder removed when the JVM exits.
+     */
+    private static org.thermotile.jobs.ingest.Ingest.Prepared ingest(RunFile run, Map<String, String> inputs) {
+        RunFile.Inputs in = run.inputs();
+        List<Path> lc = new ArrayList<>();
+        List<Path> hs = new ArrayList<>();
+        for (int i = 0; i < in.landCoverTiles().size(); i++) {
+            String key = i == 0 ? "land_cover" : "land_cover[" + i + "]";
+            Path p = localPath(in.landCoverTiles().get(i), "inputs." + key);
+            lc.add(p);
+            inputs.put(key, location(in.landCoverTiles().get(i), p));
+        }
+        for (int i = 0; i < in.heightsTiles().size(); i++) {
+            String key = i == 0 ? "heights" : "heights[" + i + "]";
+            Path p = localPath(in.heightsTiles().get(i), "inputs." + key);
+            hs.add(p);
+            inputs.put(key, location(in.heightsTiles().get(i), p));
+        }
+        Path folder;
+        try {
+            folder = java.nio.file.Files.createTempDirectory("thermotile-grid-");
+        } catch (java.io.IOException e) {
+            throw new UserInputException("cannot create a temporary folder for the prepared rasters (" + e.getMessage()
+                    + "). Fix: check java.io.tmpdir (" + System.getProperty("java.io.tmpdir") + ")", e);
+        }
+        folder.toFile().deleteOnExit();
+        try {
+            org.thermotile.jobs.ingest.Ingest.Prepared p = org.thermotile.jobs.ingest.Ingest.prepare(run, lc, hs, folder);
+            for (Path f : new Path[] {folder.resolve("landcover.tif"), folder.resolve("heights.tif")}) {
+                f.toFile().deleteOnExit();            // registered after the folder: deleted before it
+            }
+            return p;
+        } catch (RuntimeException e) {
+            deleteQuietly(folder.resolve("landcover.tif"));
+            deleteQuietly(folder.resolve("heights.tif"));
+            deleteQuietly(folder);
+            throw e;
+        }
+    }
+
+    private static void deleteQuietly(Path p) {
+        try {
+            java.nio.file.Files.deleteIfExists(p);
+        } catch (java.io.IOException ignored) {
+            // a temporary file; the error being reported matters more
+        }
     }
 
     /** The city {@code c} under the run file's weather and period: forcing, counted hours, settings. */
@@ -397,12 +450,12 @@ public final class RunPreparer {
         TileSimulation.Settings settings = new TileSimulation.Settings(run.physics().timestepMinutes(),
                 convection, deepK, firstSample, run.outputs().thresholdK(),
                 hourlyIdx.stream().mapToInt(Integer::intValue).toArray());
-        TileJobSpec spec = new TileJobSpec(c.inputs().get("land_cover"), grid, c.palette(), c.lut(), c.districts(), used,
+        TileJobSpec spec = new TileJobSpec(c.taskLandCover(), grid, c.palette(), c.lut(), c.districts(), used,
                 settings, c.heights(), c.geometry(), c.heightGrid(), c.cellPalette());
         return new PreparedRun(run, grid, spec, TileSpec.plan(grid.width(), grid.height(), c.tileSize()),
                 c.labels(), c.districtNames(), c.known(), c.counts(), c.fallback(), inputs,
                 samples.stream().mapToLong(Long::longValue).toArray(),
-                hourlyTimes.stream().mapToLong(Long::longValue).toArray(), notes, null, null);
+                hourlyTimes.stream().mapToLong(Long::longValue).toArray(), notes, null, null, c.ingest());
     }
 
     /** The forcing's first {@code hours} hours. */

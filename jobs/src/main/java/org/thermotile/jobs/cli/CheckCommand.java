@@ -34,6 +34,9 @@ final class CheckCommand implements Callable<Integer> {
         out.printf(Locale.ROOT, "  grid %d × %d cells of %.2f m, EPSG:%d, %d tiles of %d%n", p.grid().width(),
                 p.grid().height(), p.grid().pixelWidth(), p.grid().epsg(), p.tiles().size(),
                 run.tiling().tileSize());
+        if (p.ingest() != null) {
+            p.ingest().lines().forEach(l -> out.println("  " + l));
+        }
         out.printf(Locale.ROOT, "  %d cells with a material; land-cover codes and cells: %s%n", p.activeCells(),
                 p.codeCounts());
         out.printf(Locale.ROOT, "  materials: %s%n", String.join(", ", p.paletteLabels()));

@@ -47,10 +47,20 @@ import org.thermotile.model.constants.Physical;
  *                  included, runs in each; empty for a run of one period. When not empty,
  *                  {@code weather} is the run's own weather section (the entries' default) and
  *                  {@code period} that of the first entry.
+ * @param grid      the working grid ({@code grid:}): CRS, cell size and area of interest, each
+ *                  optional ({@link Grid#DEFAULT} when the section is absent)
  */
 public record RunFile(String source, String name, Site site, Inputs inputs, Weather weather,
         Period period, Physics physics, Outputs outputs, Tiling tiling, Map<String, JsonNode> reserved,
-        List<Scenario> scenarios, int sweepMax, List<NamedPeriod> periods) {
+        List<Scenario> scenarios, int sweepMax, List<NamedPeriod> periods, Grid grid) {
+
+    /** A run file with the default working grid ({@link Grid#DEFAULT}). */
+    public RunFile(String source, String name, Site site, Inputs inputs, Weather weather,
+            Period period, Physics physics, Outputs outputs, Tiling tiling, Map<String, JsonNode> reserved,
+            List<Scenario> scenarios, int sweepMax, List<NamedPeriod> periods) {
+        this(source, name, site, inputs, weather, period, physics, outputs, tiling, reserved, scenarios,
+                sweepMax, periods, Grid.DEFAULT);
+    }
 
     /** A run file of one period (no weather axis). */
     public RunFile(String source, String name, Site site, Inputs inputs, Weather weather,
@@ -98,7 +108,7 @@ public record RunFile(String source, String name, Site site, Inputs inputs, Weat
             }
         }
         return new RunFile(source, name, site, inputs, p.weather(), p.period(), physics, outputs, tiling, res,
-                scenarios, sweepMax, List.of());
+                scenarios, sweepMax, List.of(), grid);
     }
 
     public RunFile {
@@ -115,6 +125,44 @@ public record RunFile(String source, String name, Site site, Inputs inputs, Weat
         reserved = Collections.unmodifiableMap(copy);
         scenarios = scenarios == null ? List.of() : List.copyOf(scenarios);
         periods = periods == null ? List.of() : List.copyOf(periods);
+        grid = grid == null ? Grid.DEFAULT : grid;
+    }
+
+    /**
+     * The working grid the run is prepared on ({@code grid:} section; see
+     * {@code org.thermotile.jobs.ingest.Ingest} for the rules that fill what is left out).
+     *
+     * @param crs       the working CRS as written ("EPSG:32632"), or null = the land cover's own CRS
+     *                  when projected, else the WGS 84 / UTM zone of the area's centre
+     * @param cellSizeM cell edge [m], &gt; 0; NaN = the land cover's (nominal) cell size
+     * @param area      the area of interest, or null = the extent of all land-cover tiles
+     */
+    public record Grid(String crs, double cellSizeM, Area area) {
+        /** No {@code grid:} section: everything from the land cover. */
+        public static final Grid DEFAULT = new Grid(null, Double.NaN, null);
+
+        /** True when nothing is set (the section is absent or empty). */
+        public boolean isDefault() {
+            return crs == null && Double.isNaN(cellSizeM) && area == null;
+        }
+    }
+
+    /**
+     * An area of interest: a bounding box in a stated CRS, or a polygon file (exactly one).
+     *
+     * @param minX    west (or smallest first-axis) edge of the box, in {@code bboxCrs} units
+     * @param minY    south edge
+     * @param maxX    east edge, &gt; minX
+     * @param maxY    north edge, &gt; minY
+     * @param bboxCrs the box's CRS as written ("EPSG:4326"); axes are taken east, north
+     *                (longitude, latitude) whatever the EPSG axis order; null with a polygon
+     * @param polygon a GeoJSON file of Polygon/MultiPolygon features (absolute path or URI), or null
+     */
+    public record Area(double minX, double minY, double maxX, double maxY, String bboxCrs, String polygon) {
+        /** True for a bounding box, false for a polygon file. */
+        public boolean isBox() {
+            return polygon == null;
+        }
     }
 
     /** The raw section {@code key} (a deep copy: Jackson trees are mutable), or null if absent. */
@@ -167,13 +215,32 @@ public record RunFile(String source, String name, Site site, Inputs inputs, Weat
      * @param materials user materials file, or null
      * @param heights   building/tree height raster, or null
      * @param districts district polygons (GeoJSON), or null
+     * @param landCoverTiles every land-cover tile in the order given (a glob expanded and sorted);
+     *                  the first is {@code landCover}
+     * @param heightsTiles every heights tile, the first being {@code heights}; empty without heights
      * @param buildings building footprints rasterised into heights ({@code inputs.buildings}), or null
      */
     public record Inputs(String landCover, String classes, String materials, String heights,
-            String districts, Buildings buildings) {
-        /** Inputs without building footprints. */
+            String districts, List<String> landCoverTiles, List<String> heightsTiles, Buildings buildings) {
+
+        /** Inputs of one land-cover file and at most one heights file, without footprints. */
         public Inputs(String landCover, String classes, String materials, String heights, String districts) {
-            this(landCover, classes, materials, heights, districts, null);
+            this(landCover, classes, materials, heights, districts,
+                    landCover == null ? List.of() : List.of(landCover), heights == null ? List.of() : List.of(heights),
+                    null);
+        }
+
+        /** Inputs of one land-cover file and at most one heights file, with footprints or null. */
+        public Inputs(String landCover, String classes, String materials, String heights, String districts,
+                Buildings buildings) {
+            this(landCover, classes, materials, heights, districts,
+                    landCover == null ? List.of() : List.of(landCover), heights == null ? List.of() : List.of(heights),
+                    buildings);
+        }
+
+        public Inputs {
+            landCoverTiles = landCoverTiles == null ? List.of() : List.copyOf(landCoverTiles);
+            heightsTiles = heightsTiles == null ? List.of() : List.copyOf(heightsTiles);
         }
 
         /** True when {@link #classes()} names a built-in table rather than a file. */
@@ -420,10 +487,10 @@ public record RunFile(String source, String name, Site site, Inputs inputs, Weat
         }
         s.put("elevation_m", site.elevationM());
         ObjectNode in = root.putObject("inputs");
-        in.put("land_cover", inputs.landCover());
+        putLocations(in, "land_cover", inputs.landCover(), inputs.landCoverTiles());
         in.put("classes", inputs.classes());
         putIfSet(in, "materials", inputs.materials());
-        putIfSet(in, "heights", inputs.heights());
+        putLocations(in, "heights", inputs.heights(), inputs.heightsTiles());
         putIfSet(in, "districts", inputs.districts());
         if (inputs.buildings() != null) {
             Buildings b = inputs.buildings();
@@ -491,6 +558,9 @@ public record RunFile(String source, String name, Site site, Inputs inputs, Weat
         ArrayNode days = out.putArray("hourly_days");
         outputs.hourlyDays().forEach(d -> days.add(d.toString()));
         root.putObject("tiling").put("tile_size", tiling.tileSize());
+        if (!grid.isDefault()) {
+            putGrid(root.putObject("grid"));
+        }
         reserved.forEach((k, v) -> root.set(k, v.deepCopy()));
         if (!periods.isEmpty() && root.get("sweep") instanceof ObjectNode sw) {
             ArrayNode ps = sw.putArray("periods");   // resolved: absolute weather files, ISO times
@@ -506,6 +576,36 @@ public record RunFile(String source, String name, Site site, Inputs inputs, Weat
             }
         }
         return root;
+    }
+
+    /** One location as text, several (tiles) as a list. */
+    private static void putLocations(ObjectNode o, String key, String first, List<String> all) {
+        if (all.size() > 1) {
+            ArrayNode a = o.putArray(key);
+            all.forEach(a::add);
+        } else {
+            putIfSet(o, key, first);
+        }
+    }
+
+    private void putGrid(ObjectNode g) {
+        if (grid.crs() != null) {
+            g.put("crs", grid.crs());
+        }
+        if (!Double.isNaN(grid.cellSizeM())) {
+            g.put("cell_size_m", grid.cellSizeM());
+        }
+        Area a = grid.area();
+        if (a != null) {
+            ObjectNode ao = g.putObject("area");
+            if (a.isBox()) {
+                ArrayNode b = ao.putArray("bbox");
+                b.add(a.minX()).add(a.minY()).add(a.maxX()).add(a.maxY());
+                ao.put("crs", a.bboxCrs());
+            } else {
+                ao.put("polygon", a.polygon());
+            }
+        }
     }
 
     private static void putIfSet(ObjectNode o, String key, String value) {

@@ -54,7 +54,7 @@ public final class RunFileReader {
     public static final int DEFAULT_TILE_SIZE = 256;
 
     static final List<String> TOP = List.of("name", "site", "inputs", "weather", "period", "physics",
-            "outputs", "tiling");
+            "outputs", "tiling", "grid");
     static final List<String> SITE = List.of("latitude", "longitude", "elevation_m");
     static final List<String> INPUTS = List.of("land_cover", "classes", "materials", "heights", "districts",
             "buildings");
@@ -73,6 +73,8 @@ public final class RunFileReader {
     static final List<String> PHYSICS = List.of("timestep_minutes", "convection", "deep_ground_temp_c");
     static final List<String> OUTPUTS = List.of("maps", "threshold_c", "hourly_days");
     static final List<String> TILING = List.of("tile_size");
+    static final List<String> GRID = List.of("crs", "cell_size_m", "area");
+    static final List<String> AREA = List.of("bbox", "crs", "polygon");
 
     /** Which section each key belongs to, for "'tile_size' belongs under 'tiling'". */
     private static final Map<String, String> HOME = new LinkedHashMap<>();
@@ -89,6 +91,8 @@ public final class RunFileReader {
         PHYSICS.forEach(k -> HOME.put(k, "physics"));
         OUTPUTS.forEach(k -> HOME.put(k, "outputs"));
         TILING.forEach(k -> HOME.put(k, "tiling"));
+        GRID.forEach(k -> HOME.putIfAbsent(k, "grid"));
+        AREA.forEach(k -> HOME.putIfAbsent(k, "grid.area"));
     }
 
     private static final Pattern NAME = Pattern.compile("[a-z0-9_-]{1,64}");
@@ -173,6 +177,7 @@ public final class RunFileReader {
         RunFile.Outputs outputs = outputs(top.section("outputs", true,
                 "add 'outputs:' with at least 'maps: [peak]'"), spans);
         RunFile.Tiling tiling = tiling(top.section("tiling", false, ""));
+        RunFile.Grid grid = grid(top.section("grid", false, ""), baseDir);
 
         Map<String, JsonNode> reserved = new TreeMap<>();
         for (String k : RESERVED_KEYS) {
@@ -185,7 +190,7 @@ public final class RunFileReader {
             return null;
         }
         return new RunFile(source, name, site, inputs, weather, period, physics, outputs, tiling, reserved,
-                sc.scenarios(), sc.sweepMax(), periods);
+                sc.scenarios(), sc.sweepMax(), periods, grid);
     }
 
     // ---------------------------------------------------------------- sections
@@ -220,7 +225,9 @@ public final class RunFileReader {
             return null;
         }
         s.checkKeys(INPUTS, List.of(), HOME);
-        String landCover = location(s, "land_cover", true, "give the land-cover GeoTIFF, e.g. landcover.tif", baseDir);
+        List<String> landCoverTiles = tiles(s, "land_cover", true, "give the land-cover GeoTIFF, e.g. landcover.tif, "
+                + "or its tiles as a list [a.tif, b.tif] or a glob 'tiles/*.tif'", baseDir);
+        String landCover = landCoverTiles.isEmpty() ? null : landCoverTiles.get(0);
         String classes = null;
         String c = s.text("classes", true, "name a built-in table (" + String.join(" | ",
                 ClassTableReader.BUILT_IN) + ") or give a class table file (.yaml or .csv)");
@@ -236,14 +243,17 @@ public final class RunFileReader {
             }
         }
         String materials = location(s, "materials", false, "give a materials YAML file", baseDir);
-        String heights = location(s, "heights", false, "give a height GeoTIFF", baseDir);
+        List<String> heightsTiles = tiles(s, "heights", false, "give a height GeoTIFF, or its tiles as a list or a glob",
+                baseDir);
+        String heights = heightsTiles.isEmpty() ? null : heightsTiles.get(0);
         String districts = location(s, "districts", false, "give a GeoJSON file", baseDir);
         RunFile.Buildings buildings = null;
         Section b = s.section("buildings", false, "");
         if (b != null) {
             buildings = buildings(b, baseDir);
         }
-        return new RunFile.Inputs(landCover, classes, materials, heights, districts, buildings);
+        return new RunFile.Inputs(landCover, classes, materials, heights, districts, landCoverTiles, heightsTiles,
+                buildings);
     }
 
     /** {@code inputs.buildings}: footprints with a height or a floor-count attribute. */
@@ -665,7 +675,144 @@ public final class RunFileReader {
         return new RunFile.Tiling(size == null ? DEFAULT_TILE_SIZE : size);
     }
 
+    /**
+     * The working grid section: {@code crs} (text such as "EPSG:32632"; whether Apache SIS knows
+     * it is checked by the run check), {@code cell_size_m} (&gt; 0, at most 10 km) and {@code area}
+     * (a box {@code {bbox: [minx, miny, maxx, maxy], crs: EPSG:4326}} or {@code {polygon: file}}).
+     */
+    private static RunFile.Grid grid(Section s, Path baseDir) {
+        if (s == null) {
+            return RunFile.Grid.DEFAULT;
+        }
+        s.checkKeys(GRID, List.of(), HOME);
+        String crs = s.text("crs", false, "give an EPSG code such as EPSG:32632");
+        if (crs != null && !crs.matches("(?i)EPSG:\\d+")) {
+            s.doc.at(s.child("crs"), "'" + crs + "' is not an EPSG code; write e.g. EPSG:32632 (a WGS 84 / UTM zone)");
+            crs = null;
+        }
+        Double size = s.number("cell_size_m", false, "give the cell edge in metres, e.g. 4");
+        if (size != null && !(size > 0 && size <= 10_000)) {
+            s.doc.at(s.child("cell_size_m"), size + " m is not a cell size; give metres above 0 (at most 10000), e.g. 4");
+            size = null;
+        }
+        RunFile.Area area = null;
+        Section a = s.section("area", false, "");
+        if (a != null) {
+            a.checkKeys(AREA, List.of(), HOME);
+            if (a.has("bbox") == a.has("polygon")) {
+                a.doc.at(a.path, "give either 'bbox: [minx, miny, maxx, maxy]' with 'crs: EPSG:…', or 'polygon: aoi.geojson'");
+            } else if (a.has("polygon")) {
+                if (a.has("crs")) {
+                    a.doc.at(a.child("crs"), "applies to a bbox only; a polygon file declares its own CRS (GeoJSON \"crs\" "
+                            + "member, else WGS 84); remove it");
+                }
+                String poly = location(a, "polygon", true, "give a GeoJSON file of polygons", baseDir);
+                if (poly != null) {
+                    area = new RunFile.Area(Double.NaN, Double.NaN, Double.NaN, Double.NaN, null, poly);
+                }
+            } else {
+                JsonNode b = a.list("bbox", true, "give [minx, miny, maxx, maxy]");
+                String bc = a.text("crs", true, "give the box's CRS, e.g. crs: EPSG:4326 (then x = longitude, y = latitude)");
+                if (bc != null && !bc.matches("(?i)EPSG:\\d+")) {
+                    a.doc.at(a.child("crs"), "'" + bc + "' is not an EPSG code; write e.g. EPSG:4326");
+                    bc = null;
+                }
+                double[] v = new double[4];
+                boolean ok = b != null && bc != null;
+                if (b != null && b.size() != 4) {
+                    a.doc.at(a.child("bbox"), "holds " + b.size() + " numbers; give four: [minx, miny, maxx, maxy]");
+                    ok = false;
+                } else if (b != null) {
+                    for (int i = 0; i < 4; i++) {
+                        Double d = Section.number(a.doc, b.get(i), a.child("bbox") + "[" + i + "]", "give a number");
+                        if (d == null) {
+                            ok = false;
+                        } else {
+                            v[i] = d;
+                        }
+                    }
+                    if (ok && !(v[0] < v[2] && v[1] < v[3])) {
+                        a.doc.at(a.child("bbox"), "[" + v[0] + ", " + v[1] + ", " + v[2] + ", " + v[3] + "] is empty or "
+                                + "inverted; give [minx, miny, maxx, maxy] with minx < maxx and miny < maxy "
+                                + "(longitude before latitude in EPSG:4326)");
+                        ok = false;
+                    }
+                }
+                if (ok) {
+                    area = new RunFile.Area(v[0], v[1], v[2], v[3], bc.toUpperCase(Locale.ROOT), null);
+                }
+            }
+        }
+        return new RunFile.Grid(crs == null ? null : crs.toUpperCase(Locale.ROOT), size == null ? Double.NaN : size, area);
+    }
+
     // ---------------------------------------------------------------- values
+
+    /** Characters that make a location a glob pattern. */
+    private static final Pattern GLOB = Pattern.compile(".*[*?\\[{].*");
+
+    /**
+     * One location, a list of locations, or a glob (a path with {@code * ? [ {}) whose matches
+     * are listed in name order; a glob that matches nothing is an error. Globs work on local paths
+     * only.
+     */
+    private static List<String> tiles(Section s, String key, boolean required, String fix, Path baseDir) {
+        JsonNode v = s.raw(key);
+        if (v != null && v.isArray()) {
+            if (v.isEmpty()) {
+                s.doc.at(s.child(key), "is an empty list; " + fix);
+                return List.of();
+            }
+            List<String> out = new ArrayList<>();
+            for (int i = 0; i < v.size(); i++) {
+                JsonNode e = v.get(i);
+                String p = s.child(key) + "[" + i + "]";
+                if (!e.isTextual() || e.asText().isBlank()) {
+                    s.doc.at(p, "expected a file name, got " + YamlDoc.describe(e) + "; " + fix);
+                    continue;
+                }
+                String r = resolve(s, key, e.asText().strip(), baseDir);
+                if (r != null && out.contains(r)) {
+                    s.doc.at(p, "'" + e.asText() + "' is listed twice; keep one");
+                } else if (r != null) {
+                    out.add(r);
+                }
+            }
+            return out;
+        }
+        String one = s.text(key, required, fix);
+        if (one == null) {
+            return List.of();
+        }
+        if (!GLOB.matcher(one).matches() || URI_SCHEME.matcher(one).matches()) {
+            String r = resolve(s, key, one, baseDir);
+            return r == null ? List.of() : List.of(r);
+        }
+        Path pattern = Path.of(one);
+        Path abs = (pattern.isAbsolute() ? pattern : baseDir.resolve(pattern)).normalize();
+        Path dir = abs.getParent();
+        String glob = abs.getFileName().toString();
+        if (dir == null || GLOB.matcher(dir.toString()).matches()) {
+            s.doc.at(s.child(key), "'" + one + "': only the file name may hold wildcards (e.g. tiles/lc_*.tif); "
+                    + "list the files instead");
+            return List.of();
+        }
+        java.nio.file.PathMatcher m = java.nio.file.FileSystems.getDefault().getPathMatcher("glob:" + glob);
+        List<String> out = new ArrayList<>();
+        try (var stream = Files.list(dir)) {
+            stream.filter(p -> Files.isRegularFile(p) && m.matches(p.getFileName())).map(Path::toString).sorted()
+                    .forEach(out::add);
+        } catch (IOException e) {
+            s.doc.at(s.child(key), "the glob '" + one + "' matches no file: folder " + dir + " is missing or unreadable; "
+                    + "check the path (relative to the run file's folder)");
+            return List.of();
+        }
+        if (out.isEmpty()) {
+            s.doc.at(s.child(key), "the glob '" + one + "' matches no file in " + dir + "; check the pattern and the "
+                    + "folder, or list the tiles as [a.tif, b.tif]");
+        }
+        return out;
+    }
 
     /**
      * A temperature in °C within a plausibility guard {@code [lo, hi]}; values above 200 are

@@ -105,7 +105,8 @@ public record Districts(List<District> districts, int[] cellDistrict) {
         }
     }
 
-    static Geometry geometry(String where, JsonNode g, GeometryFactory gf) {
+    /** A Polygon or MultiPolygon from its GeoJSON geometry object; {@code where} names it in messages. */
+    public static Geometry geometry(String where, JsonNode g, GeometryFactory gf) {
         String type = g.path("type").asText();
         JsonNode c = g.path("coordinates");
         return switch (type) {

@@ -71,7 +71,10 @@ public final class GeoTiffReader implements AutoCloseable {
     private final OptionalDouble noData;
     private final List<String> warnings = new ArrayList<>();
 
-    private GeoTiffReader(Path file, TiffDirectory dir) throws IOException {
+    private final boolean requireProjected;
+
+    private GeoTiffReader(Path file, TiffDirectory dir, boolean requireProjected) throws IOException {
+        this.requireProjected = requireProjected;
         this.file = file;
         int width = (int) dir.integer(TiffDirectory.IMAGE_WIDTH, 0);
         int height = (int) dir.integer(TiffDirectory.IMAGE_LENGTH, 0);
@@ -122,6 +125,26 @@ public final class GeoTiffReader implements AutoCloseable {
 
     /** Opens a GeoTIFF of any number of bands and checks its structure. */
     public static GeoTiffReader open(Path file) {
+        return open(file, true);
+    }
+
+    /**
+     * Opens a single-band GeoTIFF in any CRS, geographic ones included: the input of a
+     * reprojection onto a working grid ({@code org.thermotile.jobs.ingest}). Its {@link #grid()}
+     * is then in the CRS's own units (degrees for a geographic CRS, x = longitude); use
+     * {@link #crs()} for the CRS object with the axis order of the grid.
+     */
+    public static GeoTiffReader openSingleBandAnyCrs(Path file) {
+        GeoTiffReader r = open(file, false);
+        if (r.bandCount != 1) {
+            r.close();
+            throw new RasterFileException(file, "has " + r.bandCount + " bands where one was expected",
+                    "extract the band you mean, e.g. gdal_translate -b 1 in.tif out.tif");
+        }
+        return r;
+    }
+
+    private static GeoTiffReader open(Path file, boolean requireProjected) {
         if (!Files.exists(file)) {
             throw new RasterFileException(file, "file not found", "check the path (relative paths start at "
                     + Path.of("").toAbsolutePath() + ")");
@@ -136,7 +159,7 @@ public final class GeoTiffReader implements AutoCloseable {
             throw new RasterFileException(file, "cannot be read: " + RasterFileException.describe(e), "check the file's permissions", e);
         }
         try {
-            return new GeoTiffReader(file, dir);
+            return new GeoTiffReader(file, dir, requireProjected);
         } catch (IOException e) {
             throw new RasterFileException(file, "cannot be read: " + RasterFileException.describe(e), "check the file's permissions", e);
         }
@@ -161,6 +184,11 @@ public final class GeoTiffReader implements AutoCloseable {
     /** The raster's grid, geotransform and CRS. */
     public RasterGrid grid() {
         return grid;
+    }
+
+    /** The raster's CRS as Apache SIS read it, its axes in the order of {@link #grid()}'s x and y. */
+    public CoordinateReferenceSystem crs() {
+        return geometry.getCoordinateReferenceSystem();
     }
 
     /** Number of bands. */
@@ -289,7 +317,7 @@ public final class GeoTiffReader implements AutoCloseable {
         }
         CoordinateReferenceSystem crs = g.getCoordinateReferenceSystem();
         String unsuitable = SisCrs.unsuitable(crs);
-        if (unsuitable != null) {
+        if (unsuitable != null && requireProjected) {
             throw new RasterFileException(file, unsuitable,
                     "reproject to a metric CRS, e.g. gdalwarp -t_srs EPSG:326xx (WGS 84 / UTM zone xx)");
         }

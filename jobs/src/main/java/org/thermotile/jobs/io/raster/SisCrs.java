@@ -16,13 +16,13 @@ import org.opengis.referencing.cs.AxisDirection;
 import org.opengis.referencing.cs.CoordinateSystem;
 import org.opengis.util.FactoryException;
 
-/** The bridge between {@link RasterGrid}'s EPSG code and WKT and Apache SIS CRS objects. */
-final class SisCrs {
+/** The bridge between {@link RasterGrid}'s EPSG code and WKT and Apache SIS CRS objects (also used by the working grid of {@code jobs/ingest}). */
+public final class SisCrs {
 
     private SisCrs() { }
 
     /** WKT 2 (ISO 19162:2019) of a CRS, on one line. */
-    static String wkt(CoordinateReferenceSystem crs) {
+    public static String wkt(CoordinateReferenceSystem crs) {
         WKTFormat format = new WKTFormat(Locale.ROOT, (java.time.ZoneId) null);
         format.setConvention(Convention.WKT2_2019);
         format.setIndentation(WKTFormat.SINGLE_LINE);
@@ -30,7 +30,7 @@ final class SisCrs {
     }
 
     /** The EPSG code attached to the CRS, or 0 when it has none. No database look-up. */
-    static int epsgOf(CoordinateReferenceSystem crs) {
+    public static int epsgOf(CoordinateReferenceSystem crs) {
         Identifier id = IdentifiedObjects.getIdentifier(crs, Citations.EPSG);
         if (id == null) {
             return 0;
@@ -71,7 +71,7 @@ final class SisCrs {
      * Why a CRS cannot carry a thermotile grid, or {@code null} when it can: it must be projected,
      * with metre axes pointing east then north.
      */
-    static String unsuitable(CoordinateReferenceSystem crs) {
+    public static String unsuitable(CoordinateReferenceSystem crs) {
         if (!(crs instanceof ProjectedCRS)) {
             return "its CRS \"" + crs.getName().getCode() + "\" is not projected (cell sizes would be in degrees, not metres)";
         }
