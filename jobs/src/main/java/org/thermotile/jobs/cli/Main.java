@@ -11,7 +11,7 @@ import picocli.CommandLine.Command;
                         + "estimates for comparing options. Defer to local building codes and "
                         + "licensed professionals for roofing, structural and health decisions."},
         subcommands = {RunCommand.class, CheckCommand.class, DemoCommand.class, PointCommand.class,
-                CompareCommand.class, HotspotsCommand.class, ReportCommand.class, RateCommand.class, MaterialsCommand.class,
+                CompareCommand.class, ObserveCommand.class, HotspotsCommand.class, ReportCommand.class, RateCommand.class, MaterialsCommand.class,
                 CommandLine.HelpCommand.class},
         exitCodeListHeading = "%nExit codes:%n",
         exitCodeList = {"0:done", "1:the run failed (see the message)",
