@@ -5,6 +5,7 @@ import java.util.ArrayList;
 import java.util.List;
 import java.util.TreeMap;
 import org.thermotile.jobs.config.RunFile;
+import org.thermotile.jobs.io.raster.CloudOptimized;
 import org.thermotile.jobs.io.raster.GeoTiffWriter;
 import org.thermotile.jobs.io.raster.RasterGrid;
 import org.thermotile.model.tile.TileSimulation;
@@ -77,8 +78,10 @@ final class MapOutputs {
         for (RunFile.MapKind kind : p.run().outputs().maps()) {
             String name = kind.key() + ".tif";
             Layer layer = new Layer(kind.key(), null);
+            // Overviews average temperatures and counts; the clock hour of the peak takes the nearest cell.
             GeoTiffWriter.writeFloatBlocks(mapsDir.resolve(name), grid, 1, CityJob.MAP_NODATA,
-                    new Strips(grid, tileSize, layer, tiles));
+                    new Strips(grid, tileSize, layer, tiles), kind.key().equals("peak_hour")
+                            ? CloudOptimized.Resampling.NEAREST : CloudOptimized.Resampling.AVERAGE);
             written.add("maps/" + name);
         }
         if (p.spec().geometry() != null) {

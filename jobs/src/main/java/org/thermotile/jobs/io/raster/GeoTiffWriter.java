@@ -41,7 +41,9 @@ import org.opengis.util.FactoryException;
  * memory; a stack tile holds all its bands at once (256·256·bands·4 bytes).
  *
  * <p>Apache SIS 1.6 writes the pixels, CRS and geotransform; it does not write tag 42113, so
- * {@link TiffDirectory#patch} adds it afterwards. The caller chooses the path
+ * {@link TiffDirectory#patch} adds it afterwards. Last, {@link CloudOptimized#rewrite} lays the
+ * file out as a Cloud-Optimised GeoTIFF with internal overviews (average of valid cells for
+ * float maps, nearest for integer class maps and for float maps asked so). The caller chooses the path
  * (and any temporary folder); a file left half-written by a failure is deleted.
  */
 public final class GeoTiffWriter {
@@ -122,10 +124,25 @@ public final class GeoTiffWriter {
         writeFloatBlocks(file, grid, bandCount, noData, source, false);
     }
 
+    /**
+     * As {@link #writeFloatBlocks(Path, RasterGrid, int, float, FloatBlockSource)} with the given
+     * overview resampling: {@link CloudOptimized.Resampling#NEAREST} for maps whose values are
+     * codes or clock hours, where a mean of neighbours means nothing.
+     */
+    public static void writeFloatBlocks(Path file, RasterGrid grid, int bandCount, float noData, FloatBlockSource source,
+            CloudOptimized.Resampling resampling) {
+        writeFloatBlocks(file, grid, bandCount, noData, source, false, resampling);
+    }
+
     /** As the public form; {@code forceBigTiff} writes BigTIFF whatever the size (for tests). */
     static void writeFloatBlocks(Path file, RasterGrid grid, int bandCount, float noData, FloatBlockSource source,
             boolean forceBigTiff) {
-        write(file, grid, bandCount, DataBuffer.TYPE_FLOAT, 0, 1, noDataText(noData), forceBigTiff,
+        writeFloatBlocks(file, grid, bandCount, noData, source, forceBigTiff, CloudOptimized.Resampling.AVERAGE);
+    }
+
+    private static void writeFloatBlocks(Path file, RasterGrid grid, int bandCount, float noData,
+            FloatBlockSource source, boolean forceBigTiff, CloudOptimized.Resampling resampling) {
+        write(file, grid, bandCount, DataBuffer.TYPE_FLOAT, 0, 1, noDataText(noData), forceBigTiff, resampling,
                 (tile, c0, r0, w, h) -> {
                     float[] block = new float[w * h];
                     for (int b = 0; b < bandCount; b++) {
@@ -166,6 +183,7 @@ public final class GeoTiffWriter {
         double displayMax = type.dataBufferType == DataBuffer.TYPE_BYTE ? 255 : type.max;
         double displayMin = type.dataBufferType == DataBuffer.TYPE_BYTE ? 0 : type.min;
         write(file, grid, bandCount, type.dataBufferType, displayMin, displayMax, noDataText, false,
+                CloudOptimized.Resampling.NEAREST,
                 (tile, c0, r0, w, h) -> {
                     int[] block = new int[w * h];
                     for (int b = 0; b < bandCount; b++) {
@@ -224,7 +242,8 @@ public final class GeoTiffWriter {
     }
 
     private static void write(Path file, RasterGrid grid, int bandCount, int dataType, double displayMin,
-            double displayMax, String noDataText, boolean forceBigTiff, BlockImage.Filler filler) {
+            double displayMax, String noDataText, boolean forceBigTiff, CloudOptimized.Resampling resampling,
+            BlockImage.Filler filler) {
         if (bandCount < 1) {
             throw new IllegalArgumentException(file + ": band count " + bandCount + " must be ≥ 1");
         }
@@ -270,6 +289,7 @@ public final class GeoTiffWriter {
             if (noDataText != null) {
                 TiffDirectory.read(file).patch(List.of(TiffDirectory.NewTag.ascii(TiffDirectory.GDAL_NODATA, noDataText)));
             }
+            CloudOptimized.rewrite(file, resampling);
             done = true;
         } catch (DataStoreException | IOException | RuntimeException e) {
             for (Throwable t = e; t != null; t = t.getCause()) {
