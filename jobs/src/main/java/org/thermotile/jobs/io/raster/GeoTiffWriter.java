@@ -134,6 +134,58 @@ public final class GeoTiffWriter {
         writeFloatBlocks(file, grid, bandCount, noData, source, false, resampling);
     }
 
+    /**
+     * What one band holds, for GDAL's metadata tag 42112 (GDAL GTiff driver documentation,
+     * "Metadata"): {@code <Item name="DESCRIPTION" sample="b" role="description">} (gdalinfo's
+     * "Description"), {@code <Item name="UNITTYPE" sample="b" role="unittype">} (gdalinfo's
+     * "Unit Type") and further per-band items (e.g. {@code TIME}). ASCII text (TIFF type 2).
+     *
+     * @param unit a UDUNITS-style unit ("degC", "h", "K.h", "1")
+     */
+    public record Band(String description, String unit, java.util.Map<String, String> items) {
+        public Band {
+            items = java.util.Collections.unmodifiableMap(new java.util.LinkedHashMap<>(items));
+        }
+
+        public Band(String description, String unit) {
+            this(description, unit, java.util.Map.of());
+        }
+    }
+
+    /** The GDAL_METADATA XML for the given bands (sample numbers from 0), values XML-escaped. */
+    static String bandMetadataXml(List<Band> bands) {
+        StringBuilder b = new StringBuilder("<GDALMetadata>\n");
+        for (int i = 0; i < bands.size(); i++) {
+            Band band = bands.get(i);
+            for (var e : band.items().entrySet()) {
+                b.append("  <Item name=\"").append(xml(e.getKey())).append("\" sample=\"").append(i).append("\">")
+                        .append(xml(e.getValue())).append("</Item>\n");
+            }
+            b.append("  <Item name=\"DESCRIPTION\" sample=\"").append(i).append("\" role=\"description\">")
+                    .append(xml(band.description())).append("</Item>\n");
+            b.append("  <Item name=\"UNITTYPE\" sample=\"").append(i).append("\" role=\"unittype\">")
+                    .append(xml(band.unit())).append("</Item>\n");
+        }
+        return b.append("</GDALMetadata>").toString();
+    }
+
+    private static String xml(String s) {
+        if (!java.nio.charset.StandardCharsets.US_ASCII.newEncoder().canEncode(s)) {
+            throw new IllegalArgumentException("band metadata must be ASCII: " + s);
+        }
+        return s.replace("&", "&amp;").replace("<", "&lt;").replace(">", "&gt;").replace("\"", "&quot;");
+    }
+
+    /**
+     * As {@link #writeFloatBlocks(Path, RasterGrid, int, float, FloatBlockSource, CloudOptimized.Resampling)},
+     * each band described by {@code bands} (one per band) in GDAL's metadata tag.
+     */
+    public static void writeFloatBlocks(Path file, RasterGrid grid, List<Band> bands, float noData,
+            FloatBlockSource source, CloudOptimized.Resampling resampling) {
+        write(file, grid, bands.size(), DataBuffer.TYPE_FLOAT, 0, 1, noDataText(noData), false, resampling,
+                bandMetadataXml(bands), floatFiller(bands.size(), source));
+    }
+
     /** As the public form; {@code forceBigTiff} writes BigTIFF whatever the size (for tests). */
     static void writeFloatBlocks(Path file, RasterGrid grid, int bandCount, float noData, FloatBlockSource source,
             boolean forceBigTiff) {
@@ -143,13 +195,17 @@ public final class GeoTiffWriter {
     private static void writeFloatBlocks(Path file, RasterGrid grid, int bandCount, float noData,
             FloatBlockSource source, boolean forceBigTiff, CloudOptimized.Resampling resampling) {
         write(file, grid, bandCount, DataBuffer.TYPE_FLOAT, 0, 1, noDataText(noData), forceBigTiff, resampling,
-                (tile, c0, r0, w, h) -> {
+                null, floatFiller(bandCount, source));
+    }
+
+    private static BlockImage.Filler floatFiller(int bandCount, FloatBlockSource source) {
+        return (tile, c0, r0, w, h) -> {
                     float[] block = new float[w * h];
                     for (int b = 0; b < bandCount; b++) {
                         source.fill(b, c0, r0, w, h, block);
                         tile.setSamples(c0, r0, w, h, b, block);
                     }
-                });
+                };
     }
 
     /**
@@ -183,7 +239,7 @@ public final class GeoTiffWriter {
         double displayMax = type.dataBufferType == DataBuffer.TYPE_BYTE ? 255 : type.max;
         double displayMin = type.dataBufferType == DataBuffer.TYPE_BYTE ? 0 : type.min;
         write(file, grid, bandCount, type.dataBufferType, displayMin, displayMax, noDataText, false,
-                CloudOptimized.Resampling.NEAREST,
+                CloudOptimized.Resampling.NEAREST, null,
                 (tile, c0, r0, w, h) -> {
                     int[] block = new int[w * h];
                     for (int b = 0; b < bandCount; b++) {
@@ -243,7 +299,7 @@ public final class GeoTiffWriter {
 
     private static void write(Path file, RasterGrid grid, int bandCount, int dataType, double displayMin,
             double displayMax, String noDataText, boolean forceBigTiff, CloudOptimized.Resampling resampling,
-            BlockImage.Filler filler) {
+            String gdalMetadata, BlockImage.Filler filler) {
         if (bandCount < 1) {
             throw new IllegalArgumentException(file + ": band count " + bandCount + " must be ≥ 1");
         }
@@ -286,8 +342,15 @@ public final class GeoTiffWriter {
             try (GeoTiffStore store = new GeoTiffStore(new GeoTiffStoreProvider(), connector)) {
                 store.append(image, geometry, null);
             }
+            List<TiffDirectory.NewTag> tags = new java.util.ArrayList<>();
+            if (gdalMetadata != null) {
+                tags.add(TiffDirectory.NewTag.ascii(TiffDirectory.GDAL_METADATA, gdalMetadata));
+            }
             if (noDataText != null) {
-                TiffDirectory.read(file).patch(List.of(TiffDirectory.NewTag.ascii(TiffDirectory.GDAL_NODATA, noDataText)));
+                tags.add(TiffDirectory.NewTag.ascii(TiffDirectory.GDAL_NODATA, noDataText));
+            }
+            if (!tags.isEmpty()) {
+                TiffDirectory.read(file).patch(tags);
             }
             CloudOptimized.rewrite(file, resampling);
             done = true;

@@ -48,6 +48,8 @@ final class TiffDirectory {
     static final int TILE_BYTE_COUNTS = 325;
     static final int SAMPLE_FORMAT = 339;
     static final int GEO_KEY_DIRECTORY = 34735;
+    /** GDAL's metadata tag: an XML document of items (GDAL GTiff driver documentation). */
+    static final int GDAL_METADATA = 42112;
     /** GDAL's no-data tag: the value as ASCII text (GDAL GTiff driver documentation). */
     static final int GDAL_NODATA = 42113;
 
