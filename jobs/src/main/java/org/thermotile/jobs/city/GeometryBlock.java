@@ -20,7 +20,8 @@ import org.thermotile.model.geometry.SkyViewFactor;
  *   wall_emissivity: 0.90
  * </pre>
  * Tree heights are the heights of cells whose land cover is tree canopy; trees shade with the
- * canopy transmissivity and, for the sky view, block the sky like the buildings.
+ * canopy transmissivity; they are not sky view obstacles, and a tree cell's own sky view factor
+ * is that of the ground below it (see the README, "Trees in the sky view factor").
  *
  * @param haloCells cells of context around each tile: enough for the search radius and for the
  *                  tallest height's shadow at the lowest sun that casts one

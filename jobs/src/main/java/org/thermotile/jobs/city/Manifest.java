@@ -35,7 +35,7 @@ final class Manifest {
             i.put("location", e.getValue());
             i.put("sha256", sha256(RunPreparer.localPath(e.getValue(), "inputs." + e.getKey())));
         }
-        root.set("run_file", p.run().toTree());
+        root.set("run_file", resolvedRunFile(p));
         putVersionsAndGrid(root, p);
         if (p.ingest() != null) {
             p.ingest().writeTo(root.putObject("working_grid"));   // how the inputs were put on the grid
@@ -193,5 +193,25 @@ final class Manifest {
         } catch (java.security.NoSuchAlgorithmException e) {
             throw new IllegalStateException(e);
         }
+    }
+
+    /**
+     * The run file as run, every default filled in: {@link org.thermotile.jobs.config.RunFile#toTree}
+     * (site, inputs, weather, period, physics, outputs, tiling, reserved blocks as given) with the
+     * geometry block replaced by the values actually used (directions, search radius, minimum sun
+     * elevation, canopy transmissivity, wall emissivity). A valid run file in itself.
+     */
+    static com.fasterxml.jackson.databind.node.ObjectNode resolvedRunFile(PreparedRun p) {
+        com.fasterxml.jackson.databind.node.ObjectNode tree = p.run().toTree();
+        GeometryBlock g = p.spec().geometry();
+        if (g != null) {
+            com.fasterxml.jackson.databind.node.ObjectNode o = tree.putObject("geometry");
+            o.put("sky_view_directions", g.directions());
+            o.put("search_radius_m", g.searchRadiusM());
+            o.put("min_sun_elevation_deg", g.minSunElevationDeg());
+            o.put("canopy_transmissivity", g.canopyTransmissivity());
+            o.put("wall_emissivity", g.wallEmissivity());
+        }
+        return tree;
     }
 }

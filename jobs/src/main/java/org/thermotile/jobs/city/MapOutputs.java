@@ -5,6 +5,7 @@ import java.util.ArrayList;
 import java.util.List;
 import java.util.TreeMap;
 import org.thermotile.jobs.config.RunFile;
+import org.thermotile.jobs.io.raster.CloudOptimized;
 import org.thermotile.jobs.io.raster.GeoTiffWriter;
 import org.thermotile.jobs.io.raster.RasterGrid;
 import org.thermotile.model.tile.TileSimulation;
@@ -77,15 +78,18 @@ final class MapOutputs {
         for (RunFile.MapKind kind : p.run().outputs().maps()) {
             String name = kind.key() + ".tif";
             Layer layer = new Layer(kind.key(), null);
-            GeoTiffWriter.writeFloatBlocks(mapsDir.resolve(name), grid, 1, CityJob.MAP_NODATA,
-                    new Strips(grid, tileSize, layer, tiles));
+            // Overviews average temperatures and counts; the clock hour of the peak takes the nearest cell.
+            GeoTiffWriter.writeFloatBlocks(mapsDir.resolve(name), grid, List.of(band(kind.key())), CityJob.MAP_NODATA,
+                    new Strips(grid, tileSize, layer, tiles), kind.key().equals("peak_hour")
+                            ? CloudOptimized.Resampling.NEAREST : CloudOptimized.Resampling.AVERAGE);
             written.add("maps/" + name);
         }
         if (p.spec().geometry() != null) {
             // Urban geometry: sky view factor (a fraction) and sun hours lost to cast shadows.
             for (String name : List.of("sky_view_factor", "shaded_hours")) {
-                GeoTiffWriter.writeFloatBlocks(mapsDir.resolve(name + ".tif"), grid, 1, CityJob.MAP_NODATA,
-                        new Strips(grid, tileSize, new Layer(name, null), tiles));
+                GeoTiffWriter.writeFloatBlocks(mapsDir.resolve(name + ".tif"), grid, List.of(band(name)),
+                        CityJob.MAP_NODATA, new Strips(grid, tileSize, new Layer(name, null), tiles),
+                        CloudOptimized.Resampling.AVERAGE);
                 written.add("maps/" + name + ".tif");
             }
         }
@@ -101,12 +105,37 @@ final class MapOutputs {
             for (var e : byDay.entrySet()) {
                 Layer layer = new Layer(null, e.getValue().stream().mapToInt(Integer::intValue).toArray());
                 String name = "hourly_" + e.getKey() + ".tif";
-                GeoTiffWriter.writeFloatBlocks(mapsDir.resolve(name), grid, layer.bands(), CityJob.MAP_NODATA,
-                        new Strips(grid, tileSize, layer, tiles));
+                List<GeoTiffWriter.Band> bands = new ArrayList<>();
+                for (int i : layer.hourlyBands()) {
+                    String t = java.time.OffsetDateTime.ofInstant(java.time.Instant.ofEpochSecond(hours[i]), off)
+                            .toString();
+                    bands.add(new GeoTiffWriter.Band("surface temperature at " + t, "degC",
+                            java.util.Map.of("TIME", t)));
+                }
+                GeoTiffWriter.writeFloatBlocks(mapsDir.resolve(name), grid, bands, CityJob.MAP_NODATA,
+                        new Strips(grid, tileSize, layer, tiles), CloudOptimized.Resampling.AVERAGE);
                 written.add("maps/" + name);
             }
         }
         return written;
+    }
+
+    /**
+     * Description and unit of a statistic map's band (units UDUNITS-style, ASCII: "degC" degree
+     * Celsius, "K.h" kelvin hours, "h" hours, "1" a fraction).
+     */
+    static GeoTiffWriter.Band band(String key) {
+        return switch (key) {
+            case "peak" -> new GeoTiffWriter.Band("peak surface temperature of the period", "degC");
+            case "mean" -> new GeoTiffWriter.Band("mean surface temperature of the period", "degC");
+            case "night_min" -> new GeoTiffWriter.Band("lowest night-time surface temperature", "degC");
+            case "peak_hour" -> new GeoTiffWriter.Band("local clock hour of the peak surface temperature", "h");
+            case "degree_hours" -> new GeoTiffWriter.Band("degree-hours of surface temperature above the threshold", "K.h");
+            case "hours_above" -> new GeoTiffWriter.Band("hours with surface temperature above the threshold", "h");
+            case "sky_view_factor" -> new GeoTiffWriter.Band("sky view factor", "1");
+            case "shaded_hours" -> new GeoTiffWriter.Band("sun hours lost to cast shadows", "h");
+            default -> throw new IllegalArgumentException("no band description for " + key);
+        };
     }
 
     /** A tile's values as float32, NaN (no material) as the map's no-data value. */

@@ -37,8 +37,9 @@ import picocli.CommandLine.Spec;
         description = {"Runs one surface through an hourly weather file or a synthetic clear-sky "
                 + "period and writes one CSV row per hour with every flux of its energy balance.",
                 "Rows: time, surface temperature (°C), net shortwave, absorbed sky longwave, emitted "
-                        + "longwave, sensible, latent, anthropogenic, conduction, storage (W/m²), "
-                        + "closure residual (W/m²). Fluxes are means over the hour ending at the row's time."})
+                        + "longwave, sensible, latent, anthropogenic, conduction, storage, bottom (W/m²), "
+                        + "closure residual (W/m²): residual = net shortwave + sky longwave - emitted + "
+                        + "anthropogenic - sensible - latent - conduction, and conduction = storage + bottom. Fluxes are means over the hour ending at the row's time."})
 final class PointCommand implements Callable<Integer> {
     @Spec
     CommandSpec spec;
@@ -197,11 +198,11 @@ final class PointCommand implements Callable<Integer> {
 
     static final String HEADER = "time,surface_c,net_shortwave_wm2,absorbed_sky_longwave_wm2,"
             + "emitted_longwave_wm2,sensible_wm2,latent_wm2,anthropogenic_wm2,conduction_wm2,storage_wm2,"
-            + "residual_wm2";
+            + "bottom_wm2,residual_wm2";
 
     static void writeCsv(SingleSurface.Result r, ZoneOffset zo, Writer w) throws IOException {
         Flux[] cols = {Flux.NET_SHORTWAVE, Flux.ABSORBED_SKY_LONGWAVE, Flux.EMITTED_LONGWAVE, Flux.SENSIBLE,
-            Flux.LATENT, Flux.ANTHROPOGENIC, Flux.CONDUCTION, Flux.STORAGE, Flux.RESIDUAL};
+            Flux.LATENT, Flux.ANTHROPOGENIC, Flux.CONDUCTION, Flux.STORAGE, Flux.BOTTOM, Flux.RESIDUAL};
         w.write(HEADER);
         w.write('\n');
         StringBuilder sb = new StringBuilder();
@@ -211,8 +212,9 @@ final class PointCommand implements Callable<Integer> {
             sb.append(',').append(String.format(Locale.ROOT, "%.3f", r.surfaceTempK[i] - Physical.ZERO_CELSIUS_K));
             for (Flux f : cols) {
                 double v = r.fluxWm2[f.ordinal()][i];
+                // 8 decimals: the eight rounded terms of a row then close to better than 1e-7 W/m².
                 sb.append(',').append(f == Flux.RESIDUAL ? String.format(Locale.ROOT, "%.2e", v)
-                        : String.format(Locale.ROOT, "%.2f", v));
+                        : String.format(Locale.ROOT, "%.8f", v));
             }
             sb.append('\n');
             w.write(sb.toString());

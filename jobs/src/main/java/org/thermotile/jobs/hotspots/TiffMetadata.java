@@ -147,6 +147,8 @@ final class TiffMetadata {
             write(ch, ptr, big ? 8 : 4);
             ch.force(true);
         }
+        // The new directory sits at the end: lay the file out as a COG again (directories first).
+        org.thermotile.jobs.io.raster.CloudOptimized.rewrite(file, org.thermotile.jobs.io.raster.CloudOptimized.Resampling.NEAREST);
     }
 
     /** The ASCII text of a tag in the first IFD, or null (for tests and checks). */

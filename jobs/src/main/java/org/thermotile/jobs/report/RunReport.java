@@ -854,7 +854,7 @@ public final class RunReport {
             Path rk = ranking.get();
             Table t = rk.toString().endsWith(".csv") ? Table.readCsv(rk) : Table.readParquet(rk);
             body.append("<h3>Ranking</h3>\n<table class=\"data\" id=\"ranking\"><thead><tr>");
-            t.columns().forEach(c -> body.append("<th>").append(Html.esc(c.replace('_', ' '))).append("</th>"));
+            t.columns().forEach(c -> body.append("<th>").append(Html.esc(heading(c))).append("</th>"));
             body.append("</tr></thead><tbody>\n");
             int districtCol = t.columns().indexOf("district");
             for (Object[] row : t.rows()) {
@@ -1048,5 +1048,32 @@ public final class RunReport {
     private static String fileName(String location) {
         int i = Math.max(location.lastIndexOf('/'), location.lastIndexOf('\\'));
         return i >= 0 ? location.substring(i + 1) : location;
+    }
+
+    /** Unit suffixes of column names and their symbols, longest first ("_k_h_m2" before "_m2"). */
+    private static final String[][] UNIT_SUFFIXES = {
+        {"_per_c_km2", "per °C·km²"}, {"_per_degree_hour_m2", "per K·h·m²"}, {"_c_km2", "°C·km²"},
+        {"_k_h_m2", "K·h·m²"}, {"_eur", "EUR"},
+        {"_km2", "km²"}, {"_m2", "m²"}, {"_wm2", "W/m²"}, {"_c", "°C"}, {"_k", "K"}, {"_m", "m"}, {"_pct", "%"},
+    };
+
+    /**
+     * A table heading for a column name: words with a capital first letter, the unit suffix as its
+     * symbol in brackets ("peak_reduction_c_km2" → "Peak reduction (°C·km²)",
+     * "cost_per_c_km2" → "Cost (per °C·km²)", "degree_hours_avoided_k_h_m2" → "Degree hours avoided (K·h·m²)").
+     */
+    static String heading(String column) {
+        String words = column;
+        String unit = null;
+        for (String[] u : UNIT_SUFFIXES) {
+            if (column.endsWith(u[0]) && column.length() > u[0].length()) {
+                words = column.substring(0, column.length() - u[0].length());
+                unit = u[1];
+                break;
+            }
+        }
+        words = words.replace('_', ' ');
+        words = words.isEmpty() ? words : Character.toUpperCase(words.charAt(0)) + words.substring(1);
+        return unit == null ? words : words + " (" + unit + ")";
     }
 }

@@ -243,4 +243,39 @@ class CityJobTest {
             return s.filter(Files::isRegularFile).map(p -> root.relativize(p).toString()).sorted().toList();
         }
     }
+
+    /**
+     * Every map of the run passes GDAL's COG validator ({@code validate_cloud_optimized_geotiff.py}
+     * from Debian's python3-gdal) without warnings, and gdalinfo shows each band's description and
+     * unit, and on the hourly stack each band's ISO time with its offset.
+     */
+    @Test
+    void everyMapIsAValidCogWithDescribedBands() throws Exception {
+        Gdal.require("gdalinfo");
+        String validator = "/usr/lib/python3/dist-packages/osgeo_utils/samples/validate_cloud_optimized_geotiff.py";
+        List<Path> maps;
+        try (Stream<Path> s = Files.walk(out256)) {
+            maps = s.filter(p -> p.toString().endsWith(".tif")).sorted().toList();
+        }
+        assertTrue(maps.size() >= 7, maps.toString());
+        for (Path m : maps) {
+            String v = Gdal.run(List.of("/usr/bin/python3", validator, m.toString()));
+            assertTrue(v.contains("is a valid cloud optimized GeoTIFF") && !v.toLowerCase(java.util.Locale.ROOT)
+                    .contains("warning"), m + ": " + v);
+        }
+        JsonNode peak = Gdal.info(out256.resolve("maps/peak.tif")).path("bands").get(0);
+        assertEquals("peak surface temperature of the period", peak.path("description").asText());
+        assertEquals("degC", peak.path("unit").asText());
+        assertEquals("K.h", Gdal.info(out256.resolve("maps/degree_hours.tif")).path("bands").get(0)
+                .path("unit").asText());
+        JsonNode hourly = Gdal.info(out256.resolve("maps/hourly_2026-07-15.tif")).path("bands");
+        assertEquals(24, hourly.size());
+        for (int h = 0; h < hourly.size(); h++) {
+            JsonNode b = hourly.get(h);
+            String time = b.path("metadata").path("").path("TIME").asText();
+            assertTrue(time.matches("2026-07-15T\\d\\d:00\\+02:00"), time);
+            assertEquals("surface temperature at " + time, b.path("description").asText());
+            assertEquals("degC", b.path("unit").asText());
+        }
+    }
 }

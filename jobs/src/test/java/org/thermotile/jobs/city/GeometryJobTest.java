@@ -134,4 +134,38 @@ class GeometryJobTest {
                     Files.readAllBytes(out64.resolve("maps/" + m + ".tif")), m);
         }
     }
+
+    /**
+     * The manifest's run file is fully resolved (every geometry default actually used is written
+     * out), and a re-run from it alone gives byte-identical maps.
+     */
+    @Test
+    void aReRunFromTheManifestsResolvedRunFileGivesIdenticalMaps() throws Exception {
+        com.fasterxml.jackson.databind.JsonNode rf = new com.fasterxml.jackson.databind.ObjectMapper()
+                .readTree(out256.resolve("manifest.json").toFile()).get("run_file");
+        com.fasterxml.jackson.databind.JsonNode g = rf.get("geometry");
+        assertEquals(0.3, g.get("canopy_transmissivity").asDouble(), 0);
+        assertEquals(org.thermotile.model.geometry.GeometryFactors.DEFAULT_WALL_EMISSIVITY,
+                g.get("wall_emissivity").asDouble(), 0);
+        assertEquals(10, g.get("min_sun_elevation_deg").asDouble(), 0);
+        for (String k : List.of("physics", "outputs", "tiling", "period", "weather", "site", "inputs")) {
+            assertTrue(rf.has(k), "resolved run file has " + k);
+        }
+        Path in = dir.resolve("in-t256");
+        Path again = in.resolve("resolved.yaml");
+        Files.writeString(again, new com.fasterxml.jackson.databind.ObjectMapper(
+                new com.fasterxml.jackson.dataformat.yaml.YAMLFactory()).writeValueAsString(rf));
+        Path out = dir.resolve("rerun");
+        CityJob.run(spark, RunPreparer.prepare(RunFileReader.read(again)), new CityJob.Options(out, null, false, true, 0),
+                new PrintStream(new ByteArrayOutputStream()));
+        List<String> maps;
+        try (java.util.stream.Stream<Path> st = Files.list(out256.resolve("maps"))) {
+            maps = st.map(x -> x.getFileName().toString()).sorted().toList();
+        }
+        assertTrue(maps.size() >= 5, maps.toString());
+        for (String m : maps) {
+            org.junit.jupiter.api.Assertions.assertArrayEquals(Files.readAllBytes(out256.resolve("maps/" + m)),
+                    Files.readAllBytes(out.resolve("maps/" + m)), m);
+        }
+    }
 }

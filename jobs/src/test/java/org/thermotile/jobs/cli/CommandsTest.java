@@ -45,8 +45,8 @@ class CommandsTest {
         // Every row's residual is tiny: the fluxes close.
         for (String l : lines.subList(1, lines.size())) {
             String[] f = l.split(",");
-            assertEquals(11, f.length, l);
-            assertTrue(Math.abs(Double.parseDouble(f[10])) < 1e-6, l);
+            assertEquals(12, f.length, l);
+            assertTrue(Math.abs(Double.parseDouble(f[11])) < 1e-6, l);
         }
     }
 

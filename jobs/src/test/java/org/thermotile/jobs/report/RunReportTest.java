@@ -232,7 +232,7 @@ class RunReportTest {
         for (String present : List.of("id=\"chart-district-Old Quay\"", "id=\"chart-district-Linden Park\"",
                 "id=\"map-hotspots-peak-band\"", "id=\"map-hotspots-peak-excess\"", "Hot and cold areas", "id=\"map-scenarios-cool_roofs-delta_peak\"",
                 "id=\"map-scenarios-cool_roofs-baseline_peak\"", "id=\"map-scenarios-cool_roofs-peak\"", "id=\"ranking\"",
-                "cost per degree hour eur", "Outlines: the 2 districts")) {
+                "Cost per degree hour (EUR)", "Adoption (%)", "Outlines: the 2 districts")) {
             assertTrue(f.contains(present), "full report has " + present);
         }
         for (RunReport.Result r : List.of(fullReport, bareReport)) {

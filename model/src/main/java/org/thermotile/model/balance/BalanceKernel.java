@@ -248,15 +248,17 @@ public final class BalanceKernel {
             block.energyGrossJm2[c] += (Math.abs(sw) + Math.abs(lwIn) + Math.abs(lwOut) + Math.abs(h)
                     + Math.abs(le) + Math.abs(qf) + Math.abs(bottom)) * dt;
             if (record) {
-                double g;
-                if (last > s) {
-                    g = cond[s] * (t - temp[s + 1]);
-                } else {
-                    g = bottom;
-                }
-                // ΔQ_S = Σ C_j ΔT_j / Δt; the node equations j ≥ 1 telescope to G − bottom, so
-                // only the surface node's own storage needs the temperatures.
-                double storage = capDt[s] * (t - t0Old) + (g - bottom);
+                // g: conduction from the surface node to the node below it (the bottom flux for
+                // a single node). ΔQ_S = Σ C_j ΔT_j / Δt over the whole construction, surface node
+                // included; the node equations j ≥ 1 telescope to g − bottom, so only the surface
+                // node's own storage needs the temperatures.
+                double g = last > s ? cond[s] * (t - temp[s + 1]) : bottom;
+                double surfaceNodeStorage = capDt[s] * (t - t0Old);
+                double storage = surfaceNodeStorage + (g - bottom);
+                // G: heat entering the construction through its top face (the surface node's
+                // capacity belongs to the construction), so G = ΔQ_S + bottom and the surface
+                // balance is Q* + Q_F − H − LE − G = residual; no term is counted twice.
+                double conduction = surfaceNodeStorage + g;
                 double[][] fl = block.flux;
                 fl[SurfaceBlock.Flux.NET_SHORTWAVE.ordinal()][c] += sw;
                 fl[SurfaceBlock.Flux.ABSORBED_SKY_LONGWAVE.ordinal()][c] += lwIn;
@@ -264,7 +266,7 @@ public final class BalanceKernel {
                 fl[SurfaceBlock.Flux.SENSIBLE.ordinal()][c] += h;
                 fl[SurfaceBlock.Flux.LATENT.ordinal()][c] += le;
                 fl[SurfaceBlock.Flux.ANTHROPOGENIC.ordinal()][c] += qf;
-                fl[SurfaceBlock.Flux.CONDUCTION.ordinal()][c] += g;
+                fl[SurfaceBlock.Flux.CONDUCTION.ordinal()][c] += conduction;
                 fl[SurfaceBlock.Flux.STORAGE.ordinal()][c] += storage;
                 fl[SurfaceBlock.Flux.BOTTOM.ordinal()][c] += bottom;
                 fl[SurfaceBlock.Flux.RESIDUAL.ordinal()][c] += surfaceNet - storage - bottom;

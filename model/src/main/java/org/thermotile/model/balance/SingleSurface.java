@@ -19,13 +19,24 @@ public final class SingleSurface {
         public final double[] surfaceTempK;
         /** Mean of each {@link SurfaceBlock.Flux} over the hour ending at each reported hour [W m⁻²]. */
         public final double[][] fluxWm2;
+        /**
+         * Heat content of the construction Σ_j C_j T_j at each reported hour [J m⁻²], and at
+         * index 0 of {@link #heatContentBeforeJm2} the hour before the first: the storage flux of
+         * hour i is (heat content i − heat content i−1) / 3600 s.
+         */
+        public final double[] heatContentJm2;
+        /** Heat content at the end of the hour before the first reported hour [J m⁻²]; NaN when reporting starts at hour 1. */
+        public final double heatContentBeforeJm2;
         /** Statistics over the reported hours. */
         public final CellStatistics statistics;
         /** Energy-closure residual over the whole run, spin-up included, as a fraction of the gross flux. */
         public final double closureResidualFraction;
 
-        Result(long[] t, double[] temp, double[][] flux, CellStatistics st, double closure) {
+        Result(long[] t, double[] temp, double[][] flux, double[] heat, double heatBefore, CellStatistics st,
+                double closure) {
             epochSecond = t;
+            heatContentJm2 = heat;
+            heatContentBeforeJm2 = heatBefore;
             surfaceTempK = temp;
             fluxWm2 = flux;
             statistics = st;
@@ -56,19 +67,23 @@ public final class SingleSurface {
         long[] t = new long[n];
         double[] temp = new double[n];
         double[][] flux = new double[SurfaceBlock.Flux.COUNT][n];
+        double[] heat = new double[n];
+        double[] heatBefore = {Double.NaN};
         CellStatistics st = new CellStatistics(1, thresholdK);
         BlockSimulation.run(block, sf, (hour, b) -> {
             if (hour < firstReportedHour) {
+                heatBefore[0] = b.heatContentJm2(0);
                 return;
             }
             int i = hour - firstReportedHour;
             t[i] = forcing.epochSecond[hour];
             temp[i] = b.surfaceTempK(0);
+            heat[i] = b.heatContentJm2(0);
             for (SurfaceBlock.Flux f : SurfaceBlock.Flux.values()) {
                 flux[f.ordinal()][i] = b.flux(f, 0);
             }
             st.sample(b, forcing.localHourOfDay(hour), forcing.isNight(hour));
         });
-        return new Result(t, temp, flux, st, block.closureResidualFraction(0));
+        return new Result(t, temp, flux, heat, heatBefore[0], st, block.closureResidualFraction(0));
     }
 }

@@ -113,11 +113,15 @@ public final class SurfaceBlock {
         LATENT,
         /** Anthropogenic heat Q_F. */
         ANTHROPOGENIC,
-        /** Conduction from the surface node into the material below, G. */
+        /**
+         * Conduction into the construction through its top face, G = ΔQ_S + bottom [W m⁻²]: the
+         * surface node's heat capacity belongs to the construction, so the surface balance is
+         * Q* + Q_F − H − LE − G = residual.
+         */
         CONDUCTION,
-        /** Rate of change of the column's heat content ΔQ_S. */
+        /** Rate of change of the construction's heat content ΔQ_S = Σ_j C_j dT_j/dt, surface node included. */
         STORAGE,
-        /** Heat leaving through the bottom boundary. */
+        /** Heat leaving the construction through its bottom boundary (0 when adiabatic). */
         BOTTOM,
         /** Closure residual: Q* + Q_F − H − LE − ΔQ_S − bottom. */
         RESIDUAL;

@@ -107,6 +107,46 @@ class GeometryInTileTest {
     }
 
     /**
+     * Pins the documented treatment of trees in the sky view (README, "Trees in the sky view
+     * factor"): tree crowns shade the beam (through the canopy transmissivity) but are not sky
+     * view obstacles, and a tree cell's own sky view factor is that of the ground below it (0 m),
+     * with the buildings around it as its only obstacles. So an east–west "canyon" of 20 m trees
+     * leaves the floor Ψ = 1 exactly yet shaded, and an 8 m tree in a building canyon of H/W = 2
+     * gets the canyon floor's Ψ (Oke 1987's cos(atan(2H/W)) within 0.01, as above).
+     */
+    @Test
+    void treesShadeButAreNotSkyViewObstaclesAndTreeCellsSeeTheSkyFromTheGround() {
+        int halo = Shadows.haloCells(20, 10, 1.0);
+        int tc = 3;
+        int tr = 41;
+        int wc = tc + 2 * halo;
+        int wr = tr + 2 * halo;
+        int floor0 = halo + 15;
+        float[] walls = new float[wc * wr];
+        for (int r = 0; r < wr; r++) {
+            if ((r >= floor0 - 15 && r < floor0) || (r >= floor0 + 11 && r < floor0 + 26)) {
+                Arrays.fill(walls, r * wc, (r + 1) * wc, 20f);
+            }
+        }
+        int centre = (floor0 + 5 - halo) * tc + 1;
+        TileSimulation.Result treeRows = TileSimulation.run(ASPHALT, all(tc * tr), null, 0, forcing, settings,
+                geometry(new float[wc * wr], walls, wc, wr, halo));
+        assertEquals(1.0, treeRows.skyViewFactor[centre], 1e-12);
+        assertTrue(treeRows.shadedHours[centre] > 5, "shaded hours under trees " + treeRows.shadedHours[centre]);
+
+        float[] tree = new float[wc * wr];
+        tree[(floor0 + 5) * wc + halo + 1] = 8f;
+        TileSimulation.Result withTree = TileSimulation.run(ASPHALT, all(tc * tr), null, 0, forcing, settings,
+                geometry(walls, tree, wc, wr, halo));
+        TileSimulation.Result without = TileSimulation.run(ASPHALT, all(tc * tr), null, 0, forcing, settings,
+                geometry(walls, null, wc, wr, halo));
+        assertEquals(without.skyViewFactor[centre], withTree.skyViewFactor[centre], 1e-12);
+        assertEquals(Math.cos(Math.atan(2 * 20.0 / 11.0)), withTree.skyViewFactor[centre], 0.01);
+        assertEquals(without.skyViewFactor[centre - 1], withTree.skyViewFactor[centre - 1], 1e-12,
+                "the tree does not lower its neighbour's sky view");
+    }
+
+    /**
      * Tile-size independence of the temperatures with geometry: a 40 × 30 seeded random city run
      * as one tile equals the same city run as 20 × 15 tiles with halos (bit for bit).
      */

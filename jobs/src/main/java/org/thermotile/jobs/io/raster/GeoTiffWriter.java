@@ -41,7 +41,9 @@ import org.opengis.util.FactoryException;
  * memory; a stack tile holds all its bands at once (256·256·bands·4 bytes).
  *
  * <p>Apache SIS 1.6 writes the pixels, CRS and geotransform; it does not write tag 42113, so
- * {@link TiffDirectory#patch} adds it afterwards. The caller chooses the path
+ * {@link TiffDirectory#patch} adds it afterwards. Last, {@link CloudOptimized#rewrite} lays the
+ * file out as a Cloud-Optimised GeoTIFF with internal overviews (average of valid cells for
+ * float maps, nearest for integer class maps and for float maps asked so). The caller chooses the path
  * (and any temporary folder); a file left half-written by a failure is deleted.
  */
 public final class GeoTiffWriter {
@@ -122,17 +124,88 @@ public final class GeoTiffWriter {
         writeFloatBlocks(file, grid, bandCount, noData, source, false);
     }
 
+    /**
+     * As {@link #writeFloatBlocks(Path, RasterGrid, int, float, FloatBlockSource)} with the given
+     * overview resampling: {@link CloudOptimized.Resampling#NEAREST} for maps whose values are
+     * codes or clock hours, where a mean of neighbours means nothing.
+     */
+    public static void writeFloatBlocks(Path file, RasterGrid grid, int bandCount, float noData, FloatBlockSource source,
+            CloudOptimized.Resampling resampling) {
+        writeFloatBlocks(file, grid, bandCount, noData, source, false, resampling);
+    }
+
+    /**
+     * What one band holds, for GDAL's metadata tag 42112 (GDAL GTiff driver documentation,
+     * "Metadata"): {@code <Item name="DESCRIPTION" sample="b" role="description">} (gdalinfo's
+     * "Description"), {@code <Item name="UNITTYPE" sample="b" role="unittype">} (gdalinfo's
+     * "Unit Type") and further per-band items (e.g. {@code TIME}). ASCII text (TIFF type 2).
+     *
+     * @param unit a UDUNITS-style unit ("degC", "h", "K.h", "1")
+     */
+    public record Band(String description, String unit, java.util.Map<String, String> items) {
+        public Band {
+            items = java.util.Collections.unmodifiableMap(new java.util.LinkedHashMap<>(items));
+        }
+
+        public Band(String description, String unit) {
+            this(description, unit, java.util.Map.of());
+        }
+    }
+
+    /** The GDAL_METADATA XML for the given bands (sample numbers from 0), values XML-escaped. */
+    static String bandMetadataXml(List<Band> bands) {
+        StringBuilder b = new StringBuilder("<GDALMetadata>\n");
+        for (int i = 0; i < bands.size(); i++) {
+            Band band = bands.get(i);
+            for (var e : band.items().entrySet()) {
+                b.append("  <Item name=\"").append(xml(e.getKey())).append("\" sample=\"").append(i).append("\">")
+                        .append(xml(e.getValue())).append("</Item>\n");
+            }
+            b.append("  <Item name=\"DESCRIPTION\" sample=\"").append(i).append("\" role=\"description\">")
+                    .append(xml(band.description())).append("</Item>\n");
+            b.append("  <Item name=\"UNITTYPE\" sample=\"").append(i).append("\" role=\"unittype\">")
+                    .append(xml(band.unit())).append("</Item>\n");
+        }
+        return b.append("</GDALMetadata>").toString();
+    }
+
+    private static String xml(String s) {
+        if (!java.nio.charset.StandardCharsets.US_ASCII.newEncoder().canEncode(s)) {
+            throw new IllegalArgumentException("band metadata must be ASCII: " + s);
+        }
+        return s.replace("&", "&amp;").replace("<", "&lt;").replace(">", "&gt;").replace("\"", "&quot;");
+    }
+
+    /**
+     * As {@link #writeFloatBlocks(Path, RasterGrid, int, float, FloatBlockSource, CloudOptimized.Resampling)},
+     * each band described by {@code bands} (one per band) in GDAL's metadata tag.
+     */
+    public static void writeFloatBlocks(Path file, RasterGrid grid, List<Band> bands, float noData,
+            FloatBlockSource source, CloudOptimized.Resampling resampling) {
+        write(file, grid, bands.size(), DataBuffer.TYPE_FLOAT, 0, 1, noDataText(noData), false, resampling,
+                bandMetadataXml(bands), floatFiller(bands.size(), source));
+    }
+
     /** As the public form; {@code forceBigTiff} writes BigTIFF whatever the size (for tests). */
     static void writeFloatBlocks(Path file, RasterGrid grid, int bandCount, float noData, FloatBlockSource source,
             boolean forceBigTiff) {
-        write(file, grid, bandCount, DataBuffer.TYPE_FLOAT, 0, 1, noDataText(noData), forceBigTiff,
-                (tile, c0, r0, w, h) -> {
+        writeFloatBlocks(file, grid, bandCount, noData, source, forceBigTiff, CloudOptimized.Resampling.AVERAGE);
+    }
+
+    private static void writeFloatBlocks(Path file, RasterGrid grid, int bandCount, float noData,
+            FloatBlockSource source, boolean forceBigTiff, CloudOptimized.Resampling resampling) {
+        write(file, grid, bandCount, DataBuffer.TYPE_FLOAT, 0, 1, noDataText(noData), forceBigTiff, resampling,
+                null, floatFiller(bandCount, source));
+    }
+
+    private static BlockImage.Filler floatFiller(int bandCount, FloatBlockSource source) {
+        return (tile, c0, r0, w, h) -> {
                     float[] block = new float[w * h];
                     for (int b = 0; b < bandCount; b++) {
                         source.fill(b, c0, r0, w, h, block);
                         tile.setSamples(c0, r0, w, h, b, block);
                     }
-                });
+                };
     }
 
     /**
@@ -166,6 +239,7 @@ public final class GeoTiffWriter {
         double displayMax = type.dataBufferType == DataBuffer.TYPE_BYTE ? 255 : type.max;
         double displayMin = type.dataBufferType == DataBuffer.TYPE_BYTE ? 0 : type.min;
         write(file, grid, bandCount, type.dataBufferType, displayMin, displayMax, noDataText, false,
+                CloudOptimized.Resampling.NEAREST, null,
                 (tile, c0, r0, w, h) -> {
                     int[] block = new int[w * h];
                     for (int b = 0; b < bandCount; b++) {
@@ -224,7 +298,8 @@ public final class GeoTiffWriter {
     }
 
     private static void write(Path file, RasterGrid grid, int bandCount, int dataType, double displayMin,
-            double displayMax, String noDataText, boolean forceBigTiff, BlockImage.Filler filler) {
+            double displayMax, String noDataText, boolean forceBigTiff, CloudOptimized.Resampling resampling,
+            String gdalMetadata, BlockImage.Filler filler) {
         if (bandCount < 1) {
             throw new IllegalArgumentException(file + ": band count " + bandCount + " must be ≥ 1");
         }
@@ -267,9 +342,17 @@ public final class GeoTiffWriter {
             try (GeoTiffStore store = new GeoTiffStore(new GeoTiffStoreProvider(), connector)) {
                 store.append(image, geometry, null);
             }
-            if (noDataText != null) {
-                TiffDirectory.read(file).patch(List.of(TiffDirectory.NewTag.ascii(TiffDirectory.GDAL_NODATA, noDataText)));
+            List<TiffDirectory.NewTag> tags = new java.util.ArrayList<>();
+            if (gdalMetadata != null) {
+                tags.add(TiffDirectory.NewTag.ascii(TiffDirectory.GDAL_METADATA, gdalMetadata));
             }
+            if (noDataText != null) {
+                tags.add(TiffDirectory.NewTag.ascii(TiffDirectory.GDAL_NODATA, noDataText));
+            }
+            if (!tags.isEmpty()) {
+                TiffDirectory.read(file).patch(tags);
+            }
+            CloudOptimized.rewrite(file, resampling);
             done = true;
         } catch (DataStoreException | IOException | RuntimeException e) {
             for (Throwable t = e; t != null; t = t.getCause()) {

@@ -48,6 +48,8 @@ final class TiffDirectory {
     static final int TILE_BYTE_COUNTS = 325;
     static final int SAMPLE_FORMAT = 339;
     static final int GEO_KEY_DIRECTORY = 34735;
+    /** GDAL's metadata tag: an XML document of items (GDAL GTiff driver documentation). */
+    static final int GDAL_METADATA = 42112;
     /** GDAL's no-data tag: the value as ASCII text (GDAL GTiff driver documentation). */
     static final int GDAL_NODATA = 42113;
 
@@ -146,6 +148,20 @@ final class TiffDirectory {
             } else {
                 throw notTiff(file, "its version number is " + version + ", not 42 (TIFF) or 43 (BigTIFF)");
             }
+            return readIfd(ch, file, order, big, size, ifd);
+        }
+    }
+
+    /** Reads the IFD at byte {@code ifd} of a TIFF whose header {@link #read} has checked. */
+    static TiffDirectory readAt(Path file, ByteOrder order, boolean big, long ifd) throws IOException {
+        try (FileChannel ch = FileChannel.open(file, StandardOpenOption.READ)) {
+            return readIfd(ch, file, order, big, ch.size(), ifd);
+        }
+    }
+
+    private static TiffDirectory readIfd(FileChannel ch, Path file, ByteOrder order, boolean big, long size, long ifd)
+            throws IOException {
+        {
             int countSize = big ? 8 : 2, entrySize = big ? 20 : 12, offSize = big ? 8 : 4;
             if (ifd < 8 || ifd + countSize > size) {
                 throw damaged(file, "the image directory offset " + ifd + " lies outside the file of " + size + " bytes");
@@ -236,7 +252,7 @@ final class TiffDirectory {
     }
 
     /** The value bytes of an entry, from the entry itself or from the file. */
-    private ByteBuffer values(Entry e) throws IOException {
+    ByteBuffer values(Entry e) throws IOException {
         int typeSize = e.type < TYPE_SIZE.length ? TYPE_SIZE[e.type] : 0;
         if (typeSize == 0) {
             throw damaged(file, "tag " + e.tag + " has unknown field type " + e.type);

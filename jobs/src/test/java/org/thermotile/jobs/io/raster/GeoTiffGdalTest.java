@@ -253,7 +253,7 @@ class GeoTiffGdalTest {
                 Integer.toString(row))).trim();
     }
 
-    private static String run(List<String> command) throws IOException {
+    static String run(List<String> command) throws IOException {
         ProcessBuilder pb = new ProcessBuilder(new ArrayList<>(command)).redirectErrorStream(true);
         pb.environment().put("GDAL_PAM_ENABLED", "NO");
         Process p = pb.start();
