@@ -14,9 +14,11 @@ import org.apache.spark.api.java.JavaSparkContext;
 import org.apache.spark.broadcast.Broadcast;
 import org.apache.spark.sql.SparkSession;
 import org.apache.spark.storage.StorageLevel;
-import org.thermotile.jobs.cli.UserInputException;
-import org.thermotile.jobs.io.Folders;
-import org.thermotile.jobs.io.RunLayout;
+import org.thermotile.jobs.errors.UserInputException;
+import org.thermotile.jobs.storage.Folders;
+import org.thermotile.jobs.storage.InputStaging;
+import org.thermotile.jobs.storage.OutputStore;
+import org.thermotile.jobs.storage.RunLayout;
 import org.thermotile.model.stats.GroupHourStats;
 
 /**

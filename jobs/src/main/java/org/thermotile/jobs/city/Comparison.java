@@ -18,8 +18,10 @@ import org.apache.spark.sql.SaveMode;
 import org.apache.spark.sql.SparkSession;
 import org.apache.spark.sql.types.DataTypes;
 import org.apache.spark.sql.types.StructType;
-import org.thermotile.jobs.cli.UserInputException;
-import org.thermotile.jobs.io.RunLayout;
+import org.thermotile.jobs.errors.UserInputException;
+import org.thermotile.jobs.storage.CanonicalParquet;
+import org.thermotile.jobs.storage.OutputStore;
+import org.thermotile.jobs.storage.RunLayout;
 import org.thermotile.jobs.io.raster.GeoTiffReader;
 import org.thermotile.jobs.io.raster.GeoTiffWriter;
 import org.thermotile.jobs.io.raster.RasterGrid;
@@ -272,7 +274,7 @@ public final class Comparison {
             throws IOException {
         spark.createDataFrame(rows, schema).coalesce(1).write().mode(SaveMode.ErrorIfExists)
                 .parquet(OutputStore.sparkUri(parquet));
-        TableOutputs.renameParts(parquet);
+        CanonicalParquet.renameParts(parquet);
         StringBuilder sb = new StringBuilder(String.join(",", schema.fieldNames())).append('\n');
         for (Row r : rows) {
             for (int i = 0; i < r.size(); i++) {

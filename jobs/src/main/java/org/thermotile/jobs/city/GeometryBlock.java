@@ -2,7 +2,7 @@ package org.thermotile.jobs.city;
 
 import com.fasterxml.jackson.databind.JsonNode;
 import java.util.List;
-import org.thermotile.jobs.cli.UserInputException;
+import org.thermotile.jobs.errors.UserInputException;
 import org.thermotile.jobs.config.RunFile;
 import org.thermotile.model.geometry.GeometryFactors;
 import org.thermotile.model.geometry.Shadows;

@@ -3,7 +3,7 @@ package org.thermotile.jobs.city;
 import com.fasterxml.jackson.databind.JsonNode;
 import java.util.ArrayList;
 import java.util.List;
-import org.thermotile.jobs.cli.UserInputException;
+import org.thermotile.jobs.errors.UserInputException;
 import org.thermotile.jobs.config.RunFile;
 import org.thermotile.jobs.hotspots.DistrictCells;
 import org.thermotile.jobs.hotspots.HotspotOptions;

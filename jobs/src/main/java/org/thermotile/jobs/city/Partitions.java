@@ -17,7 +17,7 @@ import java.util.Map;
 import java.util.TreeMap;
 import java.util.stream.Stream;
 import org.thermotile.jobs.config.Scenario;
-import org.thermotile.jobs.io.RunLayout;
+import org.thermotile.jobs.storage.RunLayout;
 
 /**
  * The per-variant partitions of a run folder (baseline and each scenario: its maps and its

@@ -16,7 +16,7 @@ import org.apache.sis.referencing.CommonCRS;
 import org.apache.sis.geometry.DirectPosition2D;
 import org.opengis.referencing.crs.CoordinateReferenceSystem;
 import org.opengis.referencing.operation.MathTransform;
-import org.thermotile.jobs.cli.UserInputException;
+import org.thermotile.jobs.errors.UserInputException;
 import org.thermotile.jobs.config.ClassTable;
 import org.thermotile.jobs.config.ClassTableReader;
 import org.thermotile.jobs.config.RunFile;
@@ -30,6 +30,7 @@ import org.thermotile.jobs.io.raster.RasterGrid;
 import org.thermotile.jobs.io.weather.GapFill;
 import org.thermotile.jobs.io.weather.WeatherCsv;
 import org.thermotile.jobs.io.weather.WeatherRead;
+import org.thermotile.jobs.storage.InputStaging;
 import org.thermotile.model.balance.Convection;
 import org.thermotile.model.forcing.Forcing;
 import org.thermotile.model.forcing.ForcingPreparer;
@@ -474,16 +475,7 @@ public final class RunPreparer {
      * ({@link InputStaging}).
      */
     public static Path localPath(String location, String key) {
-        if (location == null) {
-            throw new UserInputException("run file: " + key + " is missing");
-        }
-        if (location.startsWith("file:")) {
-            return Path.of(java.net.URI.create(location));
-        }
-        if (InputStaging.isRemote(location)) {
-            return InputStaging.local(location, key);
-        }
-        return Path.of(location);
+        return InputStaging.localPath(location, key);
     }
 
     /** What the manifest and the tasks see: the URI of a remote input, else the local path. */

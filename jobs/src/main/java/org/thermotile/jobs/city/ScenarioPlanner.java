@@ -6,7 +6,7 @@ import java.util.Arrays;
 import java.util.BitSet;
 import java.util.List;
 import java.util.Map;
-import org.thermotile.jobs.cli.UserInputException;
+import org.thermotile.jobs.errors.UserInputException;
 import org.thermotile.jobs.config.Scenario;
 import org.thermotile.jobs.io.districts.Districts;
 import org.thermotile.jobs.io.raster.GeoTiffReader;

@@ -6,7 +6,7 @@ import java.net.Socket;
 import java.util.ArrayList;
 import java.util.List;
 import org.apache.spark.sql.SparkSession;
-import org.thermotile.jobs.cli.UserInputException;
+import org.thermotile.jobs.errors.UserInputException;
 
 /**
  * The one place a SparkSession is made: embedded {@code local[*]} unless a master is given, either

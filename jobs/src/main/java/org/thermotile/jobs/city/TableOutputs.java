@@ -16,6 +16,8 @@ import org.apache.spark.sql.SparkSession;
 import org.apache.spark.sql.types.DataTypes;
 import org.apache.spark.sql.types.StructType;
 import org.thermotile.jobs.io.raster.RasterGrid;
+import org.thermotile.jobs.storage.OutputStore;
+import org.thermotile.jobs.storage.CanonicalParquet;
 import org.thermotile.model.stats.GroupHourStats;
 import org.thermotile.model.tile.TileSimulation;
 
@@ -84,7 +86,7 @@ public final class TableOutputs {
         });
         spark.createDataFrame(rows, CELLS).write().mode(SaveMode.ErrorIfExists).partitionBy("scenario")
                 .parquet(OutputStore.sparkUri(dir));
-        renameParts(dir);
+        CanonicalParquet.renameParts(dir);
     }
 
     /**
@@ -157,7 +159,7 @@ public final class TableOutputs {
     static void writeGroupTable(SparkSession spark, List<Row> rows, String key, Path dir) {
         spark.createDataFrame(rows, groupHours(key)).coalesce(1).write().mode(SaveMode.ErrorIfExists)
                 .partitionBy("scenario").parquet(OutputStore.sparkUri(dir));
-        renameParts(dir);
+        CanonicalParquet.renameParts(dir);
     }
 
     /** Per-cell hourly rows for the chosen days. */
@@ -184,50 +186,6 @@ public final class TableOutputs {
         });
         spark.createDataFrame(rows, CELL_HOURS).write().mode(SaveMode.ErrorIfExists).partitionBy("scenario")
                 .parquet(OutputStore.sparkUri(dir));
-        renameParts(dir);
-    }
-
-    private static final Pattern PART = Pattern.compile("part-(\\d+)-.*?(\\.[a-z0-9]+)?\\.parquet");
-
-    /**
-     * part-00003-&lt;uuid&gt;-c000.snappy.parquet → part-00000.snappy.parquet, numbered in task
-     * order within each folder (so a partition's names do not depend on which other partitions
-     * the same job wrote), footer in canonical form ({@link ParquetFooter}); checksum files removed.
-     * For a run on a Hadoop file system, the table Spark wrote there is first copied into the
-     * staging folder ({@link OutputStore#pull}).
-     */
-    public static void renameParts(Path dir) {
-        OutputStore.pull(dir);
-        renameLocalParts(dir);
-    }
-
-    private static void renameLocalParts(Path dir) {
-        try (Stream<Path> s = Files.list(dir)) {
-            List<Path> parts = new ArrayList<>();
-            for (Path f : s.sorted().toList()) {
-                String n = f.getFileName().toString();
-                if (Files.isDirectory(f)) {
-                    renameLocalParts(f);
-                } else if (n.endsWith(".crc")) {
-                    Files.delete(f);
-                } else if (PART.matcher(n).matches()) {
-                    parts.add(f);
-                }
-            }
-            parts.sort(java.util.Comparator.comparingInt(f -> {
-                Matcher m = PART.matcher(f.getFileName().toString());
-                m.matches();
-                return Integer.parseInt(m.group(1));
-            }));
-            for (int i = 0; i < parts.size(); i++) {
-                Matcher m = PART.matcher(parts.get(i).getFileName().toString());
-                m.matches();
-                String ext = m.group(2) == null ? "" : m.group(2);
-                Path named = Files.move(parts.get(i), dir.resolve(String.format("part-%05d%s.parquet", i, ext)));
-                ParquetFooter.canonicalise(named);
-            }
-        } catch (IOException e) {
-            throw new java.io.UncheckedIOException(e);
-        }
+        CanonicalParquet.renameParts(dir);
     }
 }

@@ -3,6 +3,7 @@ package org.thermotile.jobs.city;
 import java.nio.file.Path;
 import org.thermotile.jobs.io.districts.Districts;
 import org.thermotile.jobs.io.raster.GeoTiffReader;
+import org.thermotile.jobs.storage.InputStaging;
 import org.thermotile.model.materials.Material;
 import org.thermotile.model.scenario.Adoption;
 import org.thermotile.model.tile.TileSimulation;

@@ -20,18 +20,18 @@ final class CompareCommand implements Callable<Integer> {
     @Override
     public Integer call() throws Exception {
         Path cmp = runDir.resolve("comparison");
-        java.util.List<String> periods = org.thermotile.jobs.io.RunLayout.periodsOf(runDir);
+        java.util.List<String> periods = org.thermotile.jobs.storage.RunLayout.periodsOf(runDir);
         try (SparkSession spark = SparkSessions.get(null, 0)) {
             // A run over several periods: each period's comparison, then the one across them.
             for (String p : periods) {
                 Path dir = runDir.resolve("periods").resolve(p);
                 if (java.nio.file.Files.exists(dir.resolve("comparison"))) {
-                    org.thermotile.jobs.io.Folders.deleteTree(dir.resolve("comparison"));
+                    org.thermotile.jobs.storage.Folders.deleteTree(dir.resolve("comparison"));
                 }
                 Comparison.write(spark, dir);
             }
             if (java.nio.file.Files.exists(cmp)) {
-                org.thermotile.jobs.io.Folders.deleteTree(cmp);
+                org.thermotile.jobs.storage.Folders.deleteTree(cmp);
             }
             if (periods.isEmpty()) {
                 Comparison.write(spark, runDir);

@@ -5,6 +5,7 @@ import java.nio.file.Path;
 import java.util.concurrent.Callable;
 import org.thermotile.jobs.config.RunFile;
 import org.thermotile.jobs.config.RunFileReader;
+import org.thermotile.jobs.errors.UserInputException;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Option;
 

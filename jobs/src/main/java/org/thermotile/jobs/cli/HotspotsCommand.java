@@ -6,6 +6,7 @@ import java.util.Locale;
 import java.util.concurrent.Callable;
 import org.apache.spark.sql.SparkSession;
 import org.thermotile.jobs.city.SparkSessions;
+import org.thermotile.jobs.errors.UserInputException;
 import org.thermotile.jobs.hotspots.HotspotOptions;
 import org.thermotile.jobs.hotspots.Hotspots;
 import org.thermotile.model.hotspot.DistanceBand.Weights;

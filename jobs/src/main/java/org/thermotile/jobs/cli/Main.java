@@ -1,6 +1,7 @@
 package org.thermotile.jobs.cli;
 
 import java.io.PrintWriter;
+import org.thermotile.jobs.errors.UserInputException;
 import picocli.CommandLine;
 import picocli.CommandLine.Command;
 

@@ -13,6 +13,7 @@ import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
 import java.util.concurrent.Callable;
+import org.thermotile.jobs.errors.UserInputException;
 import org.thermotile.jobs.io.weather.GapFill;
 import org.thermotile.jobs.io.weather.WeatherCsv;
 import org.thermotile.jobs.io.weather.WeatherRead;

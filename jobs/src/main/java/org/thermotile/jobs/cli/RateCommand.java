@@ -2,6 +2,7 @@ package org.thermotile.jobs.cli;
 
 import java.io.PrintWriter;
 import java.util.concurrent.Callable;
+import org.thermotile.jobs.errors.UserInputException;
 import org.thermotile.model.constants.Physical;
 import org.thermotile.model.materials.Material;
 import org.thermotile.model.rating.SolarReflectanceIndex;

@@ -2,8 +2,8 @@ package org.thermotile.jobs.hotspots;
 
 import java.io.Serializable;
 import java.nio.file.Path;
-import org.thermotile.jobs.city.InputStaging;
-import org.thermotile.jobs.city.OutputStore;
+import org.thermotile.jobs.storage.InputStaging;
+import org.thermotile.jobs.storage.OutputStore;
 import org.thermotile.jobs.io.raster.GeoTiffReader;
 
 /**

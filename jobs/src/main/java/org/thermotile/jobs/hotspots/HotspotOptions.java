@@ -1,7 +1,7 @@
 package org.thermotile.jobs.hotspots;
 
 import java.util.Locale;
-import org.thermotile.jobs.cli.UserInputException;
+import org.thermotile.jobs.errors.UserInputException;
 import org.thermotile.model.hotspot.DistanceBand.Weights;
 import org.thermotile.model.hotspot.ExcessBand;
 import org.thermotile.model.hotspot.FalseDiscovery;

@@ -66,7 +66,7 @@ final class HotspotTables {
 
     static void write(SparkSession spark, List<Row> rows, StructType schema, Path dir) {
         spark.createDataFrame(rows, schema).coalesce(1).write().mode(SaveMode.ErrorIfExists)
-                .parquet(org.thermotile.jobs.city.OutputStore.sparkUri(dir));
-        org.thermotile.jobs.city.TableOutputs.renameParts(dir);   // footers canonical, as every table
+                .parquet(org.thermotile.jobs.storage.OutputStore.sparkUri(dir));
+        org.thermotile.jobs.storage.CanonicalParquet.renameParts(dir);   // footers canonical, as every table
     }
 }

@@ -27,7 +27,7 @@ import org.apache.spark.sql.SparkSession;
 import org.locationtech.jts.geom.Point;
 import org.opengis.referencing.operation.MathTransform;
 import org.opengis.referencing.operation.TransformException;
-import org.thermotile.jobs.cli.UserInputException;
+import org.thermotile.jobs.errors.UserInputException;
 import org.thermotile.jobs.io.raster.GeoTiffWriter;
 import org.thermotile.jobs.io.raster.RasterGrid;
 import org.thermotile.jobs.io.raster.GeoTiffReader;
@@ -700,10 +700,10 @@ public final class Hotspots {
     }
 
     static void deleteQuietly(Path dir) {
-        org.thermotile.jobs.io.Folders.deleteQuietly(dir);
+        org.thermotile.jobs.storage.Folders.deleteQuietly(dir);
     }
 
     static void deleteTree(Path dir) throws IOException {
-        org.thermotile.jobs.io.Folders.deleteTree(dir);
+        org.thermotile.jobs.storage.Folders.deleteTree(dir);
     }
 }

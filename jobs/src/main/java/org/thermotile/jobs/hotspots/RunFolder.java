@@ -12,7 +12,7 @@ import java.util.List;
 import java.util.Map;
 import java.util.Optional;
 import java.util.stream.Stream;
-import org.thermotile.jobs.cli.UserInputException;
+import org.thermotile.jobs.errors.UserInputException;
 import org.thermotile.jobs.config.Suggest;
 import org.thermotile.jobs.io.raster.GeoTiffReader;
 import org.thermotile.jobs.io.raster.RasterGrid;
@@ -99,7 +99,7 @@ public final class RunFolder {
                     + FIX_RERUN.formatted(dir));
         }
         List<String> missing = new ArrayList<>();
-        Path base = org.thermotile.jobs.io.RunLayout.of(dir).root();   // the run folder the outputs are listed in
+        Path base = org.thermotile.jobs.storage.RunLayout.of(dir).root();   // the run folder the outputs are listed in
         for (JsonNode o : m.path("outputs")) {
             String rel = o.asText();
             if (!Files.exists(base.resolve(rel))) {
@@ -129,7 +129,7 @@ public final class RunFolder {
         JsonNode d = manifest.path("run_file").path("inputs").path("districts");
         // A path, a file: URI, or a Hadoop URI (this JVM's local copy of it).
         return d.isTextual() && !d.asText().isBlank()
-                ? Optional.of(org.thermotile.jobs.city.RunPreparer.localPath(d.asText(), "run_file.inputs.districts"))
+                ? Optional.of(org.thermotile.jobs.storage.InputStaging.localPath(d.asText(), "run_file.inputs.districts"))
                 : Optional.empty();
     }
 

@@ -19,7 +19,7 @@ import java.util.List;
 import java.util.Locale;
 import java.util.Map;
 import java.util.function.DoubleUnaryOperator;
-import org.thermotile.jobs.cli.UserInputException;
+import org.thermotile.jobs.errors.UserInputException;
 import org.thermotile.jobs.config.RunFile;
 import org.thermotile.jobs.config.Suggest;
 import org.thermotile.jobs.io.weather.GapFill;

@@ -1,6 +1,6 @@
 package org.thermotile.jobs.report;
 
-import org.thermotile.jobs.cli.UserInputException;
+import org.thermotile.jobs.errors.UserInputException;
 
 /**
  * A run folder the report cannot be made from (a missing manifest, a damaged table, a malformed

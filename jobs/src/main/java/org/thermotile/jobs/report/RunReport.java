@@ -19,7 +19,7 @@ import java.util.Map;
 import java.util.Optional;
 import java.util.TreeMap;
 import java.util.stream.Stream;
-import org.thermotile.jobs.io.RunLayout;
+import org.thermotile.jobs.storage.RunLayout;
 import org.thermotile.jobs.io.raster.GeoTiffReader;
 import org.thermotile.jobs.io.raster.RasterGrid;
 
@@ -358,7 +358,7 @@ public final class RunReport {
         Path file;
         try {
             // A path, a file: URI, or a Hadoop URI (fetched once into a local copy).
-            file = org.thermotile.jobs.city.RunPreparer.localPath(loc, "run_file.inputs.districts");
+            file = org.thermotile.jobs.storage.InputStaging.localPath(loc, "run_file.inputs.districts");
         } catch (RuntimeException e) {
             notes.add("District outlines are not drawn: " + loc + " cannot be read (" + e.getMessage() + ").");
             return;

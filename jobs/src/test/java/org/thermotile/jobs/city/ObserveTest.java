@@ -17,7 +17,7 @@ import org.junit.jupiter.api.AfterAll;
 import org.junit.jupiter.api.BeforeAll;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
-import org.thermotile.jobs.cli.UserInputException;
+import org.thermotile.jobs.errors.UserInputException;
 import org.thermotile.jobs.config.RunFileReader;
 import org.thermotile.jobs.io.raster.GeoTiffWriter;
 import org.thermotile.jobs.io.raster.RasterGrid;
@@ -162,7 +162,7 @@ class ObserveTest {
                 }
             }
         }
-        org.thermotile.jobs.io.Folders.deleteQuietly(fresh.resolve("observed"));
+        org.thermotile.jobs.storage.Folders.deleteQuietly(fresh.resolve("observed"));
         // no acquisition time
         var e1 = assertThrows(UserInputException.class, () -> ObservationSet.read(observations("b1", """
                   - {file: bad.tif, kind: surface_temperature}

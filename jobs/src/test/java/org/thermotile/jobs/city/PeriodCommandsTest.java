@@ -55,7 +55,7 @@ class PeriodCommandsTest {
         assertTrue(before.keySet().containsAll(List.of("comparison/summary.md", "comparison/ranking_by_period.csv",
                 "periods/late-july/comparison/districts.csv")), before.keySet().toString());
         for (String p : List.of("comparison", "periods/mid-july/comparison")) {
-            org.thermotile.jobs.io.Folders.deleteTree(out.resolve(p));
+            org.thermotile.jobs.storage.Folders.deleteTree(out.resolve(p));
         }
         assertEquals(0, cli(err, "compare", out.toString()), err.toString());
         for (Map.Entry<String, byte[]> e : before.entrySet()) {

@@ -235,8 +235,8 @@ class PeriodSweepTest {
     void resumeKeepsCompletePeriodsAndRecomputesOnlyTheMissingPartition() throws Exception {
         Path copy = dir.resolve("resumed");
         ScenarioTest.copyTree(out, copy);
-        org.thermotile.jobs.io.Folders.deleteTree(copy.resolve("periods/late-july/scenarios/cool-dark-roofs"));
-        org.thermotile.jobs.io.Folders.deleteTree(copy.resolve("tables/cells/period=late-july/scenario=cool-dark-roofs"));
+        org.thermotile.jobs.storage.Folders.deleteTree(copy.resolve("periods/late-july/scenarios/cool-dark-roofs"));
+        org.thermotile.jobs.storage.Folders.deleteTree(copy.resolve("tables/cells/period=late-july/scenario=cool-dark-roofs"));
         run(in.resolve("sweep.yaml"), copy, true);
         List<String> files = DeterminismTest.tree(out).stream().filter(f -> !f.endsWith(".html") && !f.endsWith(".png"))
                 .toList();

@@ -22,7 +22,7 @@ import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.thermotile.jobs.config.RunFileException;
 import org.thermotile.jobs.config.RunFileReader;
-import org.thermotile.jobs.cli.UserInputException;
+import org.thermotile.jobs.errors.UserInputException;
 import org.thermotile.model.materials.MaterialLibrary;
 import org.thermotile.model.rating.SolarReflectanceIndex;
 
@@ -209,8 +209,8 @@ class ScenarioTest {
     void resumeRecomputesOnlyTheMissingPartitionAndGivesTheSameBytes() throws Exception {
         Path copy = dir.resolve("resumed");
         copyTree(out, copy);
-        org.thermotile.jobs.io.Folders.deleteTree(copy.resolve("scenarios/partial"));
-        org.thermotile.jobs.io.Folders.deleteTree(copy.resolve("tables/cells/scenario=partial"));
+        org.thermotile.jobs.storage.Folders.deleteTree(copy.resolve("scenarios/partial"));
+        org.thermotile.jobs.storage.Folders.deleteTree(copy.resolve("tables/cells/scenario=partial"));
         Path rf = dir.resolve("in-s256/run.yaml");
         CityJob.run(spark, RunPreparer.prepare(RunFileReader.read(rf)),
                 new CityJob.Options(copy, null, false, true, 0, true), new PrintStream(new ByteArrayOutputStream()));

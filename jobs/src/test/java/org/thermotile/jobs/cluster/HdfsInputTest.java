@@ -23,7 +23,7 @@ import org.junit.jupiter.api.io.TempDir;
 import org.thermotile.jobs.city.CityJob;
 import org.thermotile.jobs.city.RunPreparer;
 import org.thermotile.jobs.city.SparkSessions;
-import org.thermotile.jobs.cli.UserInputException;
+import org.thermotile.jobs.errors.UserInputException;
 import org.thermotile.jobs.config.RunFileReader;
 
 /**

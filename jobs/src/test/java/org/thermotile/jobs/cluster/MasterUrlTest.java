@@ -15,7 +15,7 @@ import org.junit.jupiter.api.io.TempDir;
 import org.thermotile.jobs.city.CityJob;
 import org.thermotile.jobs.city.PreparedRun;
 import org.thermotile.jobs.city.RunPreparer;
-import org.thermotile.jobs.cli.UserInputException;
+import org.thermotile.jobs.errors.UserInputException;
 import org.thermotile.jobs.config.RunFileReader;
 
 /** A master URL nobody answers is bad input, reported within a bounded wait, with nothing written. */

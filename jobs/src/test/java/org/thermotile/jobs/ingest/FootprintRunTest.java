@@ -124,7 +124,7 @@ class FootprintRunTest {
     void anUnknownRoofMaterialNamesTheFeature() throws Exception {
         Path f = dir.resolve("f.geojson");
         Files.writeString(f, Files.readString(EXAMPLE.resolve("footprints.geojson")).replace("\"clay_tile\"", "\"clay_tiles\""));
-        var e = assertThrows(org.thermotile.jobs.cli.UserInputException.class, () -> RunPreparer.prepare(
+        var e = assertThrows(org.thermotile.jobs.errors.UserInputException.class, () -> RunPreparer.prepare(
                 RunFileReader.read(runFile("{file: " + f + ", height: height_m, roof_material: roof}", false))));
         assertTrue(e.getMessage().contains("features[1]") && e.getMessage().contains("clay_tiles")
                 && e.getMessage().contains("clay_tile"), e.getMessage());

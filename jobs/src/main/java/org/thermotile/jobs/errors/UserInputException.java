@@ -1,4 +1,4 @@
-package org.thermotile.jobs.cli;
+package org.thermotile.jobs.errors;
 
 /**
  * A problem with what the user gave (a file, an option, a value): the message names the place

@@ -1,4 +1,4 @@
-package org.thermotile.jobs.io;
+package org.thermotile.jobs.storage;
 
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;

@@ -1,4 +1,4 @@
-package org.thermotile.jobs.city;
+package org.thermotile.jobs.storage;
 
 import java.io.IOException;
 import java.io.UncheckedIOException;
@@ -10,8 +10,8 @@ import java.util.concurrent.ConcurrentHashMap;
 import org.apache.hadoop.conf.Configuration;
 import org.apache.hadoop.fs.FileSystem;
 import org.apache.hadoop.fs.FileUtil;
-import org.thermotile.jobs.cli.UserInputException;
-import org.thermotile.jobs.io.Folders;
+import org.thermotile.jobs.errors.UserInputException;
+import org.thermotile.jobs.storage.Folders;
 
 /**
  * Outputs on a Hadoop file system ({@code hdfs://}, {@code s3a://} with the S3 connector, …).
@@ -47,11 +47,11 @@ public final class OutputStore {
     }
 
     /** Routes Spark's reads and writes under {@code staging} to {@code remote} until {@link #forget}. */
-    static void mirror(Path staging, String remote) {
+    public static void mirror(Path staging, String remote) {
         MIRRORS.put(staging.toAbsolutePath().normalize(), trimSlash(remote));
     }
 
-    static void forget(Path staging) {
+    public static void forget(Path staging) {
         MIRRORS.remove(staging.toAbsolutePath().normalize());
     }
 
@@ -117,7 +117,7 @@ public final class OutputStore {
     }
 
     /** Whether {@code uri} exists on its file system. */
-    static boolean exists(String uri) {
+    public static boolean exists(String uri) {
         try {
             return fileSystem(uri).exists(new org.apache.hadoop.fs.Path(uri));
         } catch (IOException | RuntimeException e) {   // Hadoop wraps a missing connector class in a RuntimeException
@@ -126,7 +126,7 @@ public final class OutputStore {
     }
 
     /** Deletes {@code uri} (recursively) if it exists. */
-    static void delete(String uri) {
+    public static void delete(String uri) {
         try {
             fileSystem(uri).delete(new org.apache.hadoop.fs.Path(uri), true);
         } catch (IOException e) {
@@ -138,7 +138,7 @@ public final class OutputStore {
      * Replaces {@code partial} with the staging folder's content and renames it to {@code target}
      * (deleting an older {@code target} first): the last step of a run on a Hadoop file system.
      */
-    static void publish(Path staging, String partial, String target) {
+    public static void publish(Path staging, String partial, String target) {
         try {
             FileSystem fs = fileSystem(target);
             org.apache.hadoop.fs.Path p = new org.apache.hadoop.fs.Path(partial);

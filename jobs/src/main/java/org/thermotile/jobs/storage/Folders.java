@@ -1,4 +1,4 @@
-package org.thermotile.jobs.io;
+package org.thermotile.jobs.storage;
 
 import java.io.IOException;
 import java.nio.file.Files;

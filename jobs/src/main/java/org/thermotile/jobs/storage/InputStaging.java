@@ -1,4 +1,4 @@
-package org.thermotile.jobs.city;
+package org.thermotile.jobs.storage;
 
 import java.io.IOException;
 import java.net.URI;
@@ -10,7 +10,7 @@ import java.util.concurrent.ConcurrentHashMap;
 import java.util.stream.Stream;
 import org.apache.hadoop.conf.Configuration;
 import org.apache.hadoop.fs.FileSystem;
-import org.thermotile.jobs.cli.UserInputException;
+import org.thermotile.jobs.errors.UserInputException;
 
 /**
  * Inputs on a Hadoop file system ({@code hdfs://}, {@code s3a://} with the S3 connector, …): the
@@ -93,5 +93,23 @@ public final class InputStaging {
             folder = f;
         }
         return folder;
+    }
+
+    /**
+     * A local path from a run-file location: a path, a {@code file:} URI, or a Hadoop URI
+     * ({@code hdfs://}, {@code s3a://}, …) whose file is copied to a local folder first
+     * ({@link #local}); {@code key} names the run-file key in messages.
+     */
+    public static Path localPath(String location, String key) {
+        if (location == null) {
+            throw new UserInputException("run file: " + key + " is missing");
+        }
+        if (location.startsWith("file:")) {
+            return Path.of(java.net.URI.create(location));
+        }
+        if (isRemote(location)) {
+            return local(location, key);
+        }
+        return Path.of(location);
     }
 }

@@ -1,4 +1,4 @@
-package org.thermotile.jobs.city;
+package org.thermotile.jobs.storage;
 
 import java.io.ByteArrayInputStream;
 import java.io.ByteArrayOutputStream;
