@@ -16,6 +16,7 @@ import org.openjdk.jmh.annotations.Setup;
 import org.openjdk.jmh.annotations.State;
 import org.openjdk.jmh.annotations.Warmup;
 import org.thermotile.model.balance.BalanceKernel;
+import org.thermotile.model.balance.CellMajorKernel;
 import org.thermotile.model.balance.Convection;
 import org.thermotile.model.balance.SubstepForcing;
 import org.thermotile.model.balance.SurfaceBlock;
@@ -45,10 +46,15 @@ public class KernelBenchmark {
     public String material;
 
     /** Cells stepped together through an hour; 0 = the whole block per sub-step. */
-    @Param({"256", "0"})
+    @Param({"256", "1024", "0"})
     public int chunk;
 
+    /** node = the kernel (node-major layout); cell = the former cell-major path, for comparison. */
+    @Param({"node", "cell"})
+    public String layout;
+
     SurfaceBlock block;
+    CellMajorKernel cellMajor;
     SubstepForcing sf;
     int hour;
 
@@ -66,6 +72,9 @@ public class KernelBenchmark {
         block = b.build();
         block.prepare(sf.dtSeconds);
         block.initialise(299.15);
+        cellMajor = new CellMajorKernel(block);
+        cellMajor.prepare(sf.dtSeconds);
+        cellMajor.initialise(299.15);
         hour = 0;
     }
 
@@ -74,6 +83,16 @@ public class KernelBenchmark {
     public double oneHour() {
         int n = sf.substepsPerHour;
         int m0 = (hour % (sf.substeps / n)) * n;
+        if (layout.equals("cell")) {
+            int step = chunk == 0 ? CELLS : chunk;
+            for (int c0 = 0; c0 < CELLS; c0 += step) {
+                for (int s = 0; s < n; s++) {
+                    cellMajor.step(sf, m0 + s, c0, Math.min(CELLS, c0 + step));
+                }
+            }
+            hour++;
+            return cellMajor.surfaceTempK(0);
+        }
         if (chunk == 0) {
             for (int s = 0; s < n; s++) {
                 BalanceKernel.step(block, sf, m0 + s);

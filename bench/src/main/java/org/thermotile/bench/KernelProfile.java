@@ -2,6 +2,7 @@ package org.thermotile.bench;
 
 import java.time.LocalDate;
 import org.thermotile.model.balance.BalanceKernel;
+import org.thermotile.model.balance.CellMajorKernel;
 import org.thermotile.model.balance.Convection;
 import org.thermotile.model.balance.SubstepForcing;
 import org.thermotile.model.balance.SurfaceBlock;
@@ -14,8 +15,10 @@ import org.thermotile.model.materials.MaterialLibrary;
 
 /**
  * A plain loop over the kernel for profiling (run it under Java Flight Recorder) and the
- * accuracy guard: the cache-blocked path against the unblocked reference path on the same
- * block, printing the largest surface-temperature difference and each path's throughput.
+ * accuracy guard: the node-major, cache-blocked kernel against the cell-major reference path
+ * ({@link CellMajorKernel}, the kernel before the node-major layout) on the same cells, printing
+ * the largest surface-temperature difference and each path's throughput, timed side by side
+ * hour by hour.
  *
  * <pre>java -XX:StartFlightRecording=filename=kernel.jfr -cp … org.thermotile.bench.KernelProfile [hours] [material]</pre>
  */
@@ -31,15 +34,19 @@ public final class KernelProfile {
                 LocalDate.of(2026, 7, 1), hours / 24 + 2, 7200, 20, 33, 0.45, 2.0)), site);
         SubstepForcing sf = SubstepForcing.of(f, 10, Convection.mcAdams());
         Material m = MaterialLibrary.get(id);
-        SurfaceBlock reference = block(m, cells, sf);
         SurfaceBlock blocked = block(m, cells, sf);
+        CellMajorKernel reference = new CellMajorKernel(blocked);
+        reference.prepare(sf.dtSeconds);
+        reference.initialise(299.15);
         int n = sf.substepsPerHour;
         long tRef = 0;
         long tBlk = 0;
         for (int h = 0; h < hours; h++) {
             long t0 = System.nanoTime();
-            for (int s = 0; s < n; s++) {
-                BalanceKernel.step(reference, sf, h * n + s);
+            for (int c0 = 0; c0 < cells; c0 += 256) {
+                for (int s = 0; s < n; s++) {
+                    reference.step(sf, h * n + s, c0, Math.min(cells, c0 + 256));
+                }
             }
             long t1 = System.nanoTime();
             for (int c0 = 0; c0 < cells; c0 += 256) {
@@ -55,7 +62,7 @@ public final class KernelProfile {
         for (int c = 0; c < cells; c++) {
             maxDiff = Math.max(maxDiff, Math.abs(reference.surfaceTempK(c) - blocked.surfaceTempK(c)));
         }
-        System.out.printf("%s, %d cells × %d h: reference %.3g cell-hours/s, blocked %.3g cell-hours/s, "
+        System.out.printf("%s, %d cells × %d h: cell-major reference %.3g cell-hours/s, node-major %.3g cell-hours/s, "
                 + "largest |ΔT| %.3g K%n", id, cells, hours, (double) cells * hours / (tRef / 1e9),
                 (double) cells * hours / (tBlk / 1e9), maxDiff);
     }

@@ -90,8 +90,9 @@ public final class BalanceKernel {
     }
 
     /**
-     * Advances cells {@code [from, to)} of {@code block} by sub-step {@code m}. Cells are
-     * independent, so any partition of the cells into ranges gives the same bits; running a
+     * Advances the cells in slots {@code [from, to)} of {@code block} by sub-step {@code m} (slots:
+     * see {@link SurfaceBlock}; a block of one construction has slot = cell). Cells are
+     * independent, so any partition of the slots into ranges gives the same bits; running a
      * cache-sized range through all sub-steps of an hour before the next range keeps its node
      * arrays in cache ({@link BlockSimulation}).
      */
@@ -100,6 +101,28 @@ public final class BalanceKernel {
             throw new IllegalStateException("block prepared for a " + block.dtSeconds
                     + " s step, forcing has " + sf.dtSeconds + " s");
         }
+        if (from < 0 || to > block.cells || from > to) {
+            throw new IndexOutOfBoundsException("slots [" + from + ", " + to + ") of a block of " + block.cells);
+        }
+        final int[] groupStart = block.groupSlotStart;
+        for (int g = 0; g < block.groups; g++) {
+            int a = Math.max(from, groupStart[g]);
+            int b = Math.min(to, groupStart[g + 1]);
+            if (a < b) {
+                stepGroup(block, sf, m, g, a, b);
+            }
+        }
+    }
+
+    /**
+     * Slots {@code [a, b)} of group {@code g}, in four passes: the bottom-up elimination node by
+     * node across the cells; the surface equation cell by cell; the back-substitution node by
+     * node across the cells; the energy accounting cell by cell. Each cell sees exactly the
+     * operations, in the same order, of a cell-at-a-time sweep ({@link CellMajorKernel}), so the
+     * bits are the same; the node loops are simple counted loops over contiguous rows, which the
+     * JIT compiles to vector instructions.
+     */
+    private static void stepGroup(SurfaceBlock block, SubstepForcing sf, int m, int g, int a, int b) {
         final double dt = sf.dtSeconds;
         final double ta = sf.airTempK[m];
         final double qa = sf.specificHumidity[m];
@@ -109,11 +132,15 @@ public final class BalanceKernel {
         final double kDown = sf.ghiWm2[m];
         final double lDown = sf.skyLongwaveWm2[m];
         final double[] temp = block.tempK;
-        final double[] capDt = block.capOverDt;
-        final double[] cond = block.conductanceDownWm2K;
-        final double[] invDen = block.invDen;
-        final double[] up = block.coupleUp;
         final double[] pj = block.scratchP;
+        final double[] capDt = block.capOverDt[g];
+        final double[] cond = block.conductanceDownWm2K[g];
+        final double[] invDen = block.invDen[g];
+        final double[] up = block.coupleUp[g];
+        final double[] bottomTemp = block.bottomTempK;
+        final double[] t0Of = block.scratchT0;
+        final double[] netOf = block.scratchNet;
+        final double[] grossOf = block.scratchGross;
         final boolean record = block.recordFluxes;
         // Urban geometry, when the block has it (else these stay unused).
         final double[] svf = block.skyViewFactor;
@@ -126,81 +153,61 @@ public final class BalanceKernel {
         final double wallLw = geometry
                 ? GeometryFactors.wallEmittedWm2(block.wallEmissivity, GeometryFactors.wallTempK(ta)) : 0.0;
 
-        final int[] nodeStart = block.nodeStart;
-        final int[] nodeCount = block.nodeCount;
-        final double[] bottomTemp = block.bottomTempK;
-        int eliminatedUntil = from; // cells below it have their surface-level P in pj[nodeStart]
-        for (int c = from; c < to; c++) {
-            final int s = nodeStart[c];
-            final int last = s + nodeCount[c] - 1;
-            final double tb = bottomTemp[c];
+        final int n = block.groupNodes[g];
+        final int stride = block.groupCells(g);
+        final int first = block.groupSlotStart[g];
+        // Node k of slot s is at row(k) + s: row(k) = base + k·stride − first.
+        final int row0 = block.groupBase[g] - first;
+        final int rowLast = row0 + (n - 1) * stride;
+        final boolean bottomFixed = block.groupBottomFixed[g];
 
-            // Bottom-up elimination: P_j = (C_j/Δt T_j + K_j P_{j+1}) / den_j, boundary P = T_b.
-            // Each cell's sweep is a chain of dependent multiply-adds, so four neighbouring cells
-            // of the same depth are swept together, their chains interleaved (the same
-            // operations per cell, so the same bits); the surface slot of pj, unused by the
-            // sweep, carries each cell's result to its turn below.
-            if (c >= eliminatedUntil && c + 3 < to) {
-                final int n = nodeCount[c];
-                if (n > 1 && nodeCount[c + 1] == n && nodeCount[c + 2] == n && nodeCount[c + 3] == n) {
-                    final int s0 = s, s1 = nodeStart[c + 1], s2 = nodeStart[c + 2], s3 = nodeStart[c + 3];
-                    double q0 = tb, q1 = bottomTemp[c + 1], q2 = bottomTemp[c + 2], q3 = bottomTemp[c + 3];
-                    for (int k = n - 1; k > 0; k--) {
-                        final int j0 = s0 + k, j1 = s1 + k, j2 = s2 + k, j3 = s3 + k;
-                        q0 = (capDt[j0] * temp[j0] + cond[j0] * q0) * invDen[j0];
-                        q1 = (capDt[j1] * temp[j1] + cond[j1] * q1) * invDen[j1];
-                        q2 = (capDt[j2] * temp[j2] + cond[j2] * q2) * invDen[j2];
-                        q3 = (capDt[j3] * temp[j3] + cond[j3] * q3) * invDen[j3];
-                        pj[j0] = q0;
-                        pj[j1] = q1;
-                        pj[j2] = q2;
-                        pj[j3] = q3;
-                    }
-                    pj[s0] = q0;
-                    pj[s1] = q1;
-                    pj[s2] = q2;
-                    pj[s3] = q3;
-                    eliminatedUntil = c + 4;
+        // 1. Bottom-up elimination: P_j = (C_j/Δt T_j + K_j P_{j+1}) / den_j, boundary P = T_b.
+        if (n > 1) {
+            final double c = capDt[n - 1], k = cond[n - 1], inv = invDen[n - 1];
+            for (int s = a; s < b; s++) {
+                pj[rowLast + s] = (c * temp[rowLast + s] + k * bottomTemp[s]) * inv;
+            }
+            for (int j = n - 2, r = rowLast - stride; j > 0; j--, r -= stride) {
+                final double cj = capDt[j], kj = cond[j], invj = invDen[j];
+                final int below = r + stride;
+                for (int s = a; s < b; s++) {
+                    pj[r + s] = (cj * temp[r + s] + kj * pj[below + s]) * invj;
                 }
             }
-            double pNext;
-            if (c < eliminatedUntil) {
-                pNext = pj[s];
-            } else {
-                pNext = tb;
-                for (int j = last; j > s; j--) {
-                    double pv = (capDt[j] * temp[j] + cond[j] * pNext) * invDen[j];
-                    pj[j] = pv;
-                    pNext = pv;
-                }
-            }
-            // Surface: g(T) = a0 T + εσT⁴ + b q_sat(T) − R = 0.
-            final double eps = block.emissivity[c];
-            final double beta = block.moisture[c];
+        }
+
+        // 2. Surface: g(T) = a0 T + εσT⁴ + b q_sat(T) − R = 0, cell by cell.
+        final double cap0 = capDt[0];
+        final double cond0 = cond[0];
+        final double a0 = block.surfaceSlope[g] + hc;
+        final int row1 = row0 + stride;
+        for (int s = a; s < b; s++) {
+            final double pNext = n > 1 ? pj[row1 + s] : bottomTemp[s];
+            final double eps = block.emissivity[s];
+            final double beta = block.moisture[s];
             final double es = eps * SIGMA;
             final double bq = beta * evap;
-            final double t0Old = temp[s];
+            final double t0Old = temp[row0 + s];
             final double sw;
             final double lwIn;
             if (geometry) {
-                double psi = svf[c];
-                double b = bStart[c] + hourFraction * (bEnd[c] - bStart[c]);
-                sw = block.absorptance[c] * GeometryFactors.shortwaveDownWm2(beamH, diffuseH, b, psi);
+                double psi = svf[s];
+                double bf = bStart[s] + hourFraction * (bEnd[s] - bStart[s]);
+                sw = block.absorptance[s] * GeometryFactors.shortwaveDownWm2(beamH, diffuseH, bf, psi);
                 lwIn = eps * GeometryFactors.longwaveDownWm2(psi, lDown, wallLw);
             } else {
-                sw = block.absorptance[c] * kDown;
+                sw = block.absorptance[s] * kDown;
                 lwIn = eps * lDown;
             }
-            final double qf = block.anthropogenicWm2[c];
-            final double rhs = capDt[s] * t0Old + cond[s] * pNext + sw + lwIn + qf + hc * ta + bq * qa;
-            final double a0 = block.surfaceSlope[c] + hc;
+            final double qf = block.anthropogenicWm2[s];
+            final double rhs = cap0 * t0Old + cond0 * pNext + sw + lwIn + qf + hc * ta + bq * qa;
 
             double t = t0Old;
             double qsAt = 0, dqsAt = 0, tAt = t;
             boolean converged = false;
             for (int it = 0; it < NEWTON_MAX_ITERATIONS; it++) {
                 double t2 = t * t;
-                double g = a0 * t + es * t2 * t2 - rhs;
+                double gv = a0 * t + es * t2 * t2 - rhs;
                 double gp = a0 + 4.0 * es * t2 * t;
                 if (bq != 0) {
                     double e = Psychrometrics.saturationVapourPressurePa(t);
@@ -209,10 +216,10 @@ public final class BalanceKernel {
                     qsAt = EPS_VAPOUR * e / den;
                     dqsAt = EPS_VAPOUR * p * de / (den * den);
                     tAt = t;
-                    g += bq * qsAt;
+                    gv += bq * qsAt;
                     gp += bq * dqsAt;
                 }
-                double dT = g / gp;
+                double dT = gv / gp;
                 t -= dT;
                 if (Math.abs(dT) < NEWTON_TOLERANCE_K) {
                     converged = true;
@@ -229,47 +236,65 @@ public final class BalanceKernel {
                     tAt = t;
                 }
             }
-            temp[s] = t;
-            double prev = t;
-            for (int j = s + 1; j <= last; j++) {
-                double v = pj[j] + up[j] * prev;
-                temp[j] = v;
-                prev = v;
-            }
+            temp[row0 + s] = t;
 
-            // Energy accounting with the converged temperatures (q_sat from its last linearisation).
+            // The surface terms with the converged temperature (q_sat from its last linearisation).
             double t2 = t * t;
             double lwOut = es * t2 * t2;
             double h = hc * (t - ta);
             double le = bq == 0 ? 0.0 : bq * (qsAt + dqsAt * (t - tAt) - qa);
-            double bottom = block.bottomFixed[c] ? cond[last] * (temp[last] - tb) : 0.0;
-            double surfaceNet = sw + lwIn - lwOut - h - le + qf;
-            block.energyInJm2[c] += (surfaceNet - bottom) * dt;
-            block.energyGrossJm2[c] += (Math.abs(sw) + Math.abs(lwIn) + Math.abs(lwOut) + Math.abs(h)
-                    + Math.abs(le) + Math.abs(qf) + Math.abs(bottom)) * dt;
+            t0Of[s] = t0Old;
+            netOf[s] = sw + lwIn - lwOut - h - le + qf;
+            grossOf[s] = Math.abs(sw) + Math.abs(lwIn) + Math.abs(lwOut) + Math.abs(h)
+                    + Math.abs(le) + Math.abs(qf);
             if (record) {
-                // g: conduction from the surface node to the node below it (the bottom flux for
+                double[][] fl = block.flux;
+                fl[SurfaceBlock.Flux.NET_SHORTWAVE.ordinal()][s] += sw;
+                fl[SurfaceBlock.Flux.ABSORBED_SKY_LONGWAVE.ordinal()][s] += lwIn;
+                fl[SurfaceBlock.Flux.EMITTED_LONGWAVE.ordinal()][s] += lwOut;
+                fl[SurfaceBlock.Flux.SENSIBLE.ordinal()][s] += h;
+                fl[SurfaceBlock.Flux.LATENT.ordinal()][s] += le;
+                fl[SurfaceBlock.Flux.ANTHROPOGENIC.ordinal()][s] += qf;
+            }
+        }
+
+        // 3. Back-substitution: T_j = P_j + Q_j T_{j−1}, node by node across the cells.
+        for (int j = 1, r = row1; j < n; j++, r += stride) {
+            final double qj = up[j];
+            final int above = r - stride;
+            for (int s = a; s < b; s++) {
+                temp[r + s] = pj[r + s] + qj * temp[above + s];
+            }
+        }
+
+        // 4. Energy accounting with the converged temperatures.
+        final double condLast = cond[n - 1];
+        final double[] energyIn = block.energyInJm2;
+        final double[] energyGross = block.energyGrossJm2;
+        for (int s = a; s < b; s++) {
+            double bottom = bottomFixed ? condLast * (temp[rowLast + s] - bottomTemp[s]) : 0.0;
+            energyIn[s] += (netOf[s] - bottom) * dt;
+            energyGross[s] += (grossOf[s] + Math.abs(bottom)) * dt;
+        }
+        if (record) {
+            double[][] fl = block.flux;
+            for (int s = a; s < b; s++) {
+                double t = temp[row0 + s];
+                double bottom = bottomFixed ? condLast * (temp[rowLast + s] - bottomTemp[s]) : 0.0;
+                double gc = n > 1 ? cond0 * (t - temp[row1 + s]) : bottom;
+                // gc: conduction from the surface node to the node below it (the bottom flux for
                 // a single node). ΔQ_S = Σ C_j ΔT_j / Δt over the whole construction, surface node
-                // included; the node equations j ≥ 1 telescope to g − bottom, so only the surface
+                // included; the node equations j ≥ 1 telescope to gc − bottom, so only the surface
                 // node's own storage needs the temperatures.
-                double g = last > s ? cond[s] * (t - temp[s + 1]) : bottom;
-                double surfaceNodeStorage = capDt[s] * (t - t0Old);
-                double storage = surfaceNodeStorage + (g - bottom);
+                double surfaceNodeStorage = cap0 * (t - t0Of[s]);
+                double storage = surfaceNodeStorage + (gc - bottom);
                 // G: heat entering the construction through its top face (the surface node's
                 // capacity belongs to the construction), so G = ΔQ_S + bottom and the surface
                 // balance is Q* + Q_F − H − LE − G = residual; no term is counted twice.
-                double conduction = surfaceNodeStorage + g;
-                double[][] fl = block.flux;
-                fl[SurfaceBlock.Flux.NET_SHORTWAVE.ordinal()][c] += sw;
-                fl[SurfaceBlock.Flux.ABSORBED_SKY_LONGWAVE.ordinal()][c] += lwIn;
-                fl[SurfaceBlock.Flux.EMITTED_LONGWAVE.ordinal()][c] += lwOut;
-                fl[SurfaceBlock.Flux.SENSIBLE.ordinal()][c] += h;
-                fl[SurfaceBlock.Flux.LATENT.ordinal()][c] += le;
-                fl[SurfaceBlock.Flux.ANTHROPOGENIC.ordinal()][c] += qf;
-                fl[SurfaceBlock.Flux.CONDUCTION.ordinal()][c] += conduction;
-                fl[SurfaceBlock.Flux.STORAGE.ordinal()][c] += storage;
-                fl[SurfaceBlock.Flux.BOTTOM.ordinal()][c] += bottom;
-                fl[SurfaceBlock.Flux.RESIDUAL.ordinal()][c] += surfaceNet - storage - bottom;
+                fl[SurfaceBlock.Flux.CONDUCTION.ordinal()][s] += surfaceNodeStorage + gc;
+                fl[SurfaceBlock.Flux.STORAGE.ordinal()][s] += storage;
+                fl[SurfaceBlock.Flux.BOTTOM.ordinal()][s] += bottom;
+                fl[SurfaceBlock.Flux.RESIDUAL.ordinal()][s] += netOf[s] - storage - bottom;
             }
         }
     }

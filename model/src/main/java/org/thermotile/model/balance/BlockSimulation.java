@@ -13,7 +13,7 @@ import java.util.Arrays;
 public final class BlockSimulation {
     private BlockSimulation() {}
 
-    /** Cells stepped together through an hour: about 180 kB of node state, within a core's L2 cache. */
+    /** Slots stepped together through an hour: their node rows (T and P) stay within a core's L2 cache. */
     static final int CHUNK_CELLS = 256;
 
     /** Told after each simulated hour. */
@@ -39,8 +39,8 @@ public final class BlockSimulation {
                 }
             }
             int m0 = (k - 1) * n;
-            // Each range of cells goes through all the hour's sub-steps while its node arrays
-            // (~0.7 kB a cell) are still in cache; the kernel is otherwise memory-bound.
+            // Each range of slots goes through all the hour's sub-steps while its node rows
+            // (T and P, 16 B per cell and node) are still in cache.
             for (int c0 = 0; c0 < block.cells; c0 += CHUNK_CELLS) {
                 int c1 = Math.min(block.cells, c0 + CHUNK_CELLS);
                 for (int s = 0; s < n; s++) {

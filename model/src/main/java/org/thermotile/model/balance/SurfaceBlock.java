@@ -1,6 +1,9 @@
 package org.thermotile.model.balance;
 
+import java.util.ArrayList;
+import java.util.Arrays;
 import java.util.HashMap;
+import java.util.IdentityHashMap;
 import java.util.List;
 import java.util.Map;
 import org.thermotile.model.materials.Material;
@@ -9,15 +12,56 @@ import org.thermotile.model.materials.Material;
  * A block of cells (one tile, or one surface) as a struct of arrays: one primitive array per
  * property and per state variable, never one object per cell.
  *
- * <p>Each cell owns a run of conduction nodes {@code [nodeStart[c], nodeStart[c] + nodeCount[c])}
- * in the packed node arrays, node 0 of the run being the surface. Cells of the same construction
- * share a {@link ColumnGrid} while the block is built; the packed arrays are then independent.
- * Built by {@link Builder}; the kernel ({@link BalanceKernel}) mutates only the state arrays.
+ * <p>Layout. Cells of the same construction (one {@link ColumnGrid}: same layers, bottom and
+ * spacing) form a <em>group</em>; the groups are numbered in order of their first cell, and
+ * inside the block every cell has a <em>slot</em>: the slots of a group are contiguous, its cells
+ * in ascending cell order. Per-cell arrays are indexed by slot. A group of {@code m} cells and
+ * {@code n} nodes owns {@code n·m} consecutive entries of the node arrays, stored node-major: node
+ * {@code k} of the group's {@code i}-th cell is at {@code groupBase[g] + k·m + i}. The nodes' heat
+ * capacities, conductances and implicit-step coefficients are the group's, once per node, so each
+ * Thomas sweep of {@link BalanceKernel} runs node by node as a plain loop across the group's cells
+ * (which the JIT vectorises). Public accessors take cell indices, as the builder does.
+ * Built by {@link Builder}; the kernel mutates only the state arrays.
  */
 public final class SurfaceBlock {
     public final int cells;
 
-    // Per-cell properties.
+    // Cells and slots.
+    /** Slot of each cell. */
+    final int[] slotOfCell;
+    /** Cell of each slot. */
+    final int[] cellOfSlot;
+    /** True when every cell is its own slot (one group, or groups already in cell order). */
+    final boolean identityOrder;
+    /** Index in the node arrays of each cell's surface node (by cell). */
+    final int[] surfaceIndexOfCell;
+    /** Group of each cell (by cell). */
+    final int[] groupOfCell;
+
+    // Groups: cells of one construction.
+    final int groups;
+    /** First slot of each group, and {@code groupSlotStart[groups] == cells}. */
+    final int[] groupSlotStart;
+    /** Start of each group's node-major run in the node arrays. */
+    final int[] groupBase;
+    /** Nodes per cell of each group. */
+    final int[] groupNodes;
+    /** Whether each group's bottom boundary is held at a temperature (else adiabatic). */
+    final boolean[] groupBottomFixed;
+    /** Per group and node: heat capacity [J m⁻² K⁻¹], conductance down [W m⁻² K⁻¹], depth [m]. */
+    final double[][] capacityJm2K;
+    final double[][] conductanceDownWm2K;
+    final double[][] depthM;
+
+    // Per group and node, the implicit-step coefficients, set by prepare(dt).
+    double dtSeconds = Double.NaN;
+    final double[][] capOverDt;
+    final double[][] invDen;
+    final double[][] coupleUp;
+    /** Per group, the constant part of the surface equation's slope, C₀/Δt + K₀₁(1 − Q₁). */
+    final double[] surfaceSlope;
+
+    // Per-cell properties (by slot).
     /** Solar absorptance 1 − α. */
     final double[] absorptance;
     /** Thermal emissivity ε. */
@@ -26,33 +70,22 @@ public final class SurfaceBlock {
     final double[] moisture;
     /** Anthropogenic heat Q_F [W m⁻²]. */
     final double[] anthropogenicWm2;
-    /** Bottom-boundary temperature [K] (deep ground or indoor air). */
+    /** Bottom-boundary temperature [K] (deep ground or indoor air; 0 when adiabatic). */
     final double[] bottomTempK;
-    /** Whether the bottom boundary is held at a temperature (else adiabatic). */
-    final boolean[] bottomFixed;
-    final int[] nodeStart;
-    final int[] nodeCount;
 
-    // Per-node properties.
-    final double[] capacityJm2K;
-    final double[] conductanceDownWm2K;
-    final double[] depthM;
-
-    // Per-node coefficients of the implicit step, set by prepare(dt).
-    double dtSeconds = Double.NaN;
-    final double[] capOverDt;
-    final double[] invDen;
-    final double[] coupleUp;
-    /** Per-cell constant part of the surface equation's slope, C₀/Δt + K₀₁(1 − Q₁). */
-    final double[] surfaceSlope;
-    /** Scratch: the eliminated right-hand sides P_j. */
-    final double[] scratchP;
-
-    // State.
+    // Node state and scratch (node-major per group).
     /** Node temperatures [K]. */
     final double[] tempK;
+    /** Scratch: the eliminated right-hand sides P_j. */
+    final double[] scratchP;
+    /** Scratch per slot between the kernel's passes: surface temperature before the step [K]. */
+    final double[] scratchT0;
+    /** Scratch per slot: net surface flux Q* + Q_F − H − LE [W m⁻²]. */
+    final double[] scratchNet;
+    /** Scratch per slot: Σ |flux| of the surface terms [W m⁻²]. */
+    final double[] scratchGross;
 
-    // Energy accounting per cell.
+    // Energy accounting per cell (by slot).
     /** Σ (surface flux − bottom flux)·Δt into the column [J m⁻²]. */
     final double[] energyInJm2;
     /** Σ of the magnitudes of every flux term·Δt [J m⁻²]. */
@@ -61,37 +94,78 @@ public final class SurfaceBlock {
     final double[] heatContentStartJm2;
 
     // Urban geometry (null when the block has none: then the kernel's radiation is unscaled).
-    /** Sky view factor Ψ per cell [–], or null. */
+    /** Sky view factor Ψ per slot [–], or null. */
     double[] skyViewFactor;
-    /** Beam factor per cell at the start and at the end of the current hour [–] (0 shade … 1 sun). */
+    /** Beam factor per slot at the start and at the end of the current hour [–] (0 shade … 1 sun). */
     double[] beamFactorStart;
     double[] beamFactorEnd;
     /** Wall emissivity ε_w of the wall longwave term [–]. */
     double wallEmissivity;
 
-    // Per-cell fluxes of the latest sub-step, or the hour's means when recording [W m⁻²].
+    // Per-slot fluxes of the latest sub-step, or the hour's means when recording [W m⁻²].
     final boolean recordFluxes;
     final double[][] flux;
 
-    SurfaceBlock(int cells, int totalNodes, boolean recordFluxes) {
+    private SurfaceBlock(int cells, ColumnGrid[] gridOfGroup, int[] groupOfCell, boolean recordFluxes) {
         this.cells = cells;
+        this.groups = gridOfGroup.length;
+        this.groupOfCell = groupOfCell;
+        groupSlotStart = new int[groups + 1];
+        for (int c = 0; c < cells; c++) {
+            groupSlotStart[groupOfCell[c] + 1]++;
+        }
+        for (int g = 0; g < groups; g++) {
+            groupSlotStart[g + 1] += groupSlotStart[g];
+        }
+        groupBase = new int[groups];
+        groupNodes = new int[groups];
+        groupBottomFixed = new boolean[groups];
+        capacityJm2K = new double[groups][];
+        conductanceDownWm2K = new double[groups][];
+        depthM = new double[groups][];
+        capOverDt = new double[groups][];
+        invDen = new double[groups][];
+        coupleUp = new double[groups][];
+        surfaceSlope = new double[groups];
+        int total = 0;
+        for (int g = 0; g < groups; g++) {
+            ColumnGrid grid = gridOfGroup[g];
+            int n = grid.nodes();
+            groupBase[g] = total;
+            groupNodes[g] = n;
+            groupBottomFixed[g] = grid.bottomFixed;
+            capacityJm2K[g] = grid.capacityJm2K.clone();
+            conductanceDownWm2K[g] = grid.conductanceDownWm2K.clone();
+            depthM[g] = grid.depthM.clone();
+            capOverDt[g] = new double[n];
+            invDen[g] = new double[n];
+            coupleUp[g] = new double[n];
+            total = Math.addExact(total, Math.multiplyExact(n, groupSlotStart[g + 1] - groupSlotStart[g]));
+        }
+        slotOfCell = new int[cells];
+        cellOfSlot = new int[cells];
+        surfaceIndexOfCell = new int[cells];
+        int[] next = Arrays.copyOf(groupSlotStart, groups);
+        boolean identity = true;
+        for (int c = 0; c < cells; c++) {
+            int g = groupOfCell[c];
+            int slot = next[g]++;
+            slotOfCell[c] = slot;
+            cellOfSlot[slot] = c;
+            surfaceIndexOfCell[c] = groupBase[g] + (slot - groupSlotStart[g]);
+            identity &= slot == c;
+        }
+        identityOrder = identity;
         absorptance = new double[cells];
         emissivity = new double[cells];
         moisture = new double[cells];
         anthropogenicWm2 = new double[cells];
         bottomTempK = new double[cells];
-        bottomFixed = new boolean[cells];
-        nodeStart = new int[cells];
-        nodeCount = new int[cells];
-        capacityJm2K = new double[totalNodes];
-        conductanceDownWm2K = new double[totalNodes];
-        depthM = new double[totalNodes];
-        capOverDt = new double[totalNodes];
-        invDen = new double[totalNodes];
-        coupleUp = new double[totalNodes];
-        surfaceSlope = new double[cells];
-        scratchP = new double[totalNodes];
-        tempK = new double[totalNodes];
+        tempK = new double[total];
+        scratchP = new double[total];
+        scratchT0 = new double[cells];
+        scratchNet = new double[cells];
+        scratchGross = new double[cells];
         energyInJm2 = new double[cells];
         energyGrossJm2 = new double[cells];
         heatContentStartJm2 = new double[cells];
@@ -130,22 +204,23 @@ public final class SurfaceBlock {
 
     /** Number of conduction nodes of cell {@code c}. */
     public int nodes(int c) {
-        return nodeCount[c];
+        return groupNodes[groupOfCell[c]];
     }
 
     /** Surface temperature of cell {@code c} [K]. */
     public double surfaceTempK(int c) {
-        return tempK[nodeStart[c]];
+        return tempK[surfaceIndexOfCell[c]];
     }
 
     /** Temperature of node {@code j} (0 = surface) of cell {@code c} [K]. */
     public double nodeTempK(int c, int j) {
-        return tempK[nodeStart[c] + j];
+        int g = groupOfCell[c];
+        return tempK[surfaceIndexOfCell[c] + j * groupCells(g)];
     }
 
     /** Depth of node {@code j} of cell {@code c} [m]. */
     public double nodeDepthM(int c, int j) {
-        return depthM[nodeStart[c] + j];
+        return depthM[groupOfCell[c]][j];
     }
 
     /** A recorded flux of cell {@code c} [W m⁻²] (the hour's mean after each hour). */
@@ -153,14 +228,17 @@ public final class SurfaceBlock {
         if (!recordFluxes) {
             throw new IllegalStateException("this block was built without flux recording");
         }
-        return flux[f.ordinal()][c];
+        return flux[f.ordinal()][slotOfCell[c]];
     }
 
-    /** Column heat content Σ C_j T_j of cell {@code c} [J m⁻²]. */
+    /** Column heat content Σ C_j T_j of cell {@code c} [J m⁻²] (summed from the surface down). */
     public double heatContentJm2(int c) {
+        int g = groupOfCell[c];
+        double[] cap = capacityJm2K[g];
+        int stride = groupCells(g);
         double s = 0;
-        for (int i = nodeStart[c], e = i + nodeCount[c]; i < e; i++) {
-            s += capacityJm2K[i] * tempK[i];
+        for (int j = 0, i = surfaceIndexOfCell[c]; j < cap.length; j++, i += stride) {
+            s += cap[j] * tempK[i];
         }
         return s;
     }
@@ -171,11 +249,17 @@ public final class SurfaceBlock {
      * every flux term. Zero for an exact implicit solve.
      */
     public double closureResidualFraction(int c) {
-        double gross = energyGrossJm2[c];
+        int slot = slotOfCell[c];
+        double gross = energyGrossJm2[slot];
         if (gross == 0) {
             return 0;
         }
-        return (energyInJm2[c] - (heatContentJm2(c) - heatContentStartJm2[c])) / gross;
+        return (energyInJm2[slot] - (heatContentJm2(c) - heatContentStartJm2[slot])) / gross;
+    }
+
+    /** Cells of group {@code g}. */
+    int groupCells(int g) {
+        return groupSlotStart[g + 1] - groupSlotStart[g];
     }
 
     /**
@@ -192,12 +276,13 @@ public final class SurfaceBlock {
         if (!(wallEmissivity >= 0 && wallEmissivity <= 1)) {
             throw new IllegalArgumentException("wall emissivity " + wallEmissivity + ": must be 0…1");
         }
-        this.skyViewFactor = skyViewFactor.clone();
+        this.skyViewFactor = new double[cells];
+        toSlots(skyViewFactor, this.skyViewFactor);
         this.wallEmissivity = wallEmissivity;
         beamFactorStart = new double[cells];
         beamFactorEnd = new double[cells];
-        java.util.Arrays.fill(beamFactorStart, 1.0);
-        java.util.Arrays.fill(beamFactorEnd, 1.0);
+        Arrays.fill(beamFactorStart, 1.0);
+        Arrays.fill(beamFactorEnd, 1.0);
     }
 
     /** True once {@link #useGeometry} was called. */
@@ -216,13 +301,24 @@ public final class SurfaceBlock {
         }
         checkPerCell("beam factors at the hour's start", atHourStart);
         checkPerCell("beam factors at the hour's end", atHourEnd);
-        System.arraycopy(atHourStart, 0, beamFactorStart, 0, cells);
-        System.arraycopy(atHourEnd, 0, beamFactorEnd, 0, cells);
+        toSlots(atHourStart, beamFactorStart);
+        toSlots(atHourEnd, beamFactorEnd);
     }
 
     /** Sky view factor Ψ of cell {@code c} [–] (1 without geometry). */
     public double skyViewFactor(int c) {
-        return skyViewFactor == null ? 1.0 : skyViewFactor[c];
+        return skyViewFactor == null ? 1.0 : skyViewFactor[slotOfCell[c]];
+    }
+
+    /** Copies per-cell values into slot order. */
+    private void toSlots(double[] byCell, double[] bySlot) {
+        if (identityOrder) {
+            System.arraycopy(byCell, 0, bySlot, 0, cells);
+        } else {
+            for (int s = 0; s < cells; s++) {
+                bySlot[s] = byCell[cellOfSlot[s]];
+            }
+        }
     }
 
     private void checkPerCell(String what, double[] v) {
@@ -236,27 +332,33 @@ public final class SurfaceBlock {
         }
     }
 
-    /** Sets the implicit-step coefficients for sub-step {@code dt} [s]; the grids do not change. */
+    /**
+     * Sets the implicit-step coefficients for sub-step {@code dt} [s]; the grids do not change.
+     * Per node j ≥ 1, bottom-up: den_j = C_j/Δt + K_{j−1} + K_j − K_j Q_{j+1}, Q_j = K_{j−1}/den_j
+     * (the Thomas algorithm run in reverse; Patankar 1980, §4.2).
+     */
     public void prepare(double dt) {
         if (!(dt > 0)) {
             throw new IllegalArgumentException("sub-step must be > 0 s");
         }
         dtSeconds = dt;
-        for (int c = 0; c < cells; c++) {
-            int s = nodeStart[c];
-            int n = nodeCount[c];
+        for (int g = 0; g < groups; g++) {
+            double[] cap = capacityJm2K[g];
+            double[] cond = conductanceDownWm2K[g];
+            double[] cdt = capOverDt[g];
+            int n = groupNodes[g];
             double qNext = 0;
-            for (int j = s + n - 1; j >= s; j--) {
-                capOverDt[j] = capacityJm2K[j] / dt;
-                double down = conductanceDownWm2K[j];
-                if (j > s) {
-                    double up = conductanceDownWm2K[j - 1];
-                    double inv = 1.0 / (capOverDt[j] + up + down - down * qNext);
-                    invDen[j] = inv;
-                    coupleUp[j] = up * inv;
-                    qNext = coupleUp[j];
+            for (int j = n - 1; j >= 0; j--) {
+                cdt[j] = cap[j] / dt;
+                double down = cond[j];
+                if (j > 0) {
+                    double up = cond[j - 1];
+                    double inv = 1.0 / (cdt[j] + up + down - down * qNext);
+                    invDen[g][j] = inv;
+                    coupleUp[g][j] = up * inv;
+                    qNext = coupleUp[g][j];
                 } else {
-                    surfaceSlope[c] = capOverDt[j] + down * (1.0 - qNext);
+                    surfaceSlope[g] = cdt[j] + down * (1.0 - qNext);
                 }
             }
         }
@@ -269,16 +371,20 @@ public final class SurfaceBlock {
      */
     public void initialise(double surfaceTempK) {
         for (int c = 0; c < cells; c++) {
-            int s = nodeStart[c];
-            int n = nodeCount[c];
-            double bottomDepth = depthM[s + n - 1];
-            for (int j = s; j < s + n; j++) {
-                double f = (bottomFixed[c] && bottomDepth > 0) ? depthM[j] / bottomDepth : 0;
-                tempK[j] = surfaceTempK + f * (bottomTempK[c] - surfaceTempK);
+            int g = groupOfCell[c];
+            int slot = slotOfCell[c];
+            int n = groupNodes[g];
+            int stride = groupCells(g);
+            double[] depth = depthM[g];
+            double bottomDepth = depth[n - 1];
+            boolean fixed = groupBottomFixed[g];
+            for (int j = 0, i = surfaceIndexOfCell[c]; j < n; j++, i += stride) {
+                double f = (fixed && bottomDepth > 0) ? depth[j] / bottomDepth : 0;
+                tempK[i] = surfaceTempK + f * (bottomTempK[slot] - surfaceTempK);
             }
-            energyInJm2[c] = 0;
-            energyGrossJm2[c] = 0;
-            heatContentStartJm2[c] = heatContentJm2(c);
+            energyInJm2[slot] = 0;
+            energyGrossJm2[slot] = 0;
+            heatContentStartJm2[slot] = heatContentJm2(c);
         }
     }
 
@@ -327,34 +433,36 @@ public final class SurfaceBlock {
         }
 
         public SurfaceBlock build() {
-            int total = 0;
-            for (int c = 0; c < cells; c++) {
-                if (material[c] == null) {
-                    throw new IllegalStateException("cell " + c + " has no material");
-                }
-                total += grid[c].nodes();
-            }
-            SurfaceBlock b = new SurfaceBlock(cells, total, recordFluxes);
-            int at = 0;
+            Map<ColumnGrid, Integer> groupOf = new IdentityHashMap<>();
+            List<ColumnGrid> gridOfGroup = new ArrayList<>();
+            int[] groupOfCell = new int[cells];
             for (int c = 0; c < cells; c++) {
                 Material m = material[c];
-                ColumnGrid g = grid[c];
-                b.absorptance[c] = 1.0 - m.albedo();
-                b.emissivity[c] = m.emissivity();
-                b.moisture[c] = m.moistureAvailability();
-                b.anthropogenicWm2[c] = m.anthropogenicHeatWm2();
-                b.bottomTempK[c] = bottomTemp[c];
-                b.bottomFixed[c] = g.bottomFixed;
-                if (g.bottomFixed && !Double.isFinite(bottomTemp[c])) {
+                if (m == null) {
+                    throw new IllegalStateException("cell " + c + " has no material");
+                }
+                if (grid[c].bottomFixed && !Double.isFinite(bottomTemp[c])) {
                     throw new IllegalArgumentException("material '" + m.id()
                             + "' needs a bottom temperature and no default was given");
                 }
-                b.nodeStart[c] = at;
-                b.nodeCount[c] = g.nodes();
-                System.arraycopy(g.capacityJm2K, 0, b.capacityJm2K, at, g.nodes());
-                System.arraycopy(g.conductanceDownWm2K, 0, b.conductanceDownWm2K, at, g.nodes());
-                System.arraycopy(g.depthM, 0, b.depthM, at, g.nodes());
-                at += g.nodes();
+                Integer g = groupOf.get(grid[c]);
+                if (g == null) {
+                    g = gridOfGroup.size();
+                    groupOf.put(grid[c], g);
+                    gridOfGroup.add(grid[c]);
+                }
+                groupOfCell[c] = g;
+            }
+            SurfaceBlock b = new SurfaceBlock(cells, gridOfGroup.toArray(new ColumnGrid[0]), groupOfCell,
+                    recordFluxes);
+            for (int c = 0; c < cells; c++) {
+                Material m = material[c];
+                int s = b.slotOfCell[c];
+                b.absorptance[s] = 1.0 - m.albedo();
+                b.emissivity[s] = m.emissivity();
+                b.moisture[s] = m.moistureAvailability();
+                b.anthropogenicWm2[s] = m.anthropogenicHeatWm2();
+                b.bottomTempK[s] = bottomTemp[c];
             }
             return b;
         }
