@@ -82,6 +82,11 @@ public final class CityJob {
             throw new UserInputException(out + " already exists. Fix: choose another --out folder, "
                     + "add --replace to overwrite it, or --resume to keep its complete scenario partitions");
         }
+        if (Files.exists(out) && opt.replace() && !Files.isRegularFile(out.resolve("manifest.json"))) {
+            // --replace deletes the folder: never one that is not a run of ours (the user's own files).
+            throw new UserInputException(out + " is not a thermotile run folder (no manifest.json), so --replace "
+                    + "will not delete it. Fix: choose another --out folder, or empty or remove it yourself");
+        }
         Path parent = out.getParent();
         Path tmp = parent.resolve("." + out.getFileName() + ".partial");
         try {
