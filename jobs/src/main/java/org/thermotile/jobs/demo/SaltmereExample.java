@@ -66,13 +66,16 @@ public final class SaltmereExample {
             System.exit(2);
         }
         Path folder = Path.of(args[1]);
-        checkOnRoofs(List.of(folder.resolve("landcover_w.tif"), folder.resolve("landcover_e.tif")));
+        checkOnRoofs(List.of(folder.resolve("landcover_w.tif"), folder.resolve("landcover_e.tif")), BUILDINGS);
         writeWeather(Path.of(args[0]), folder.resolve("weather-local.csv"));
         writeFootprints(folder.resolve("footprints.geojson"));
     }
 
-    /** Every cell centre of every building must fall on a roof code (20…26) of one of the tiles. */
-    public static void checkOnRoofs(List<Path> tiles) throws Exception {
+    /**
+     * Every cell centre of every rectangle of {@code buildings} (layout of {@link #BUILDINGS}) must fall
+     * on a roof code (20…26) of one of the geographic {@code tiles}; otherwise an exception names it.
+     */
+    public static void checkOnRoofs(List<Path> tiles, Object[][] buildings) throws Exception {
         MathTransform toLonLat = CRS.findOperation(CommonCRS.WGS84.universal(45, 9),
                 CommonCRS.WGS84.normalizedGeographic(), null).getMathTransform();
         List<int[]> codes = new ArrayList<>();
@@ -83,11 +86,11 @@ public final class SaltmereExample {
                 codes.add(r.readIntWindow(0, 0, r.grid().width(), r.grid().height()));
             }
         }
-        for (int i = 0; i < BUILDINGS.length; i++) {
-            double w = ((Number) BUILDINGS[i][0]).doubleValue();
-            double s = ((Number) BUILDINGS[i][1]).doubleValue();
-            double e = ((Number) BUILDINGS[i][2]).doubleValue();
-            double n = ((Number) BUILDINGS[i][3]).doubleValue();
+        for (int i = 0; i < buildings.length; i++) {
+            double w = ((Number) buildings[i][0]).doubleValue();
+            double s = ((Number) buildings[i][1]).doubleValue();
+            double e = ((Number) buildings[i][2]).doubleValue();
+            double n = ((Number) buildings[i][3]).doubleValue();
             for (double y = s + 2; y < n; y += 4) {
                 for (double x = w + 2; x < e; x += 4) {
                     double[] p = {x, y};
