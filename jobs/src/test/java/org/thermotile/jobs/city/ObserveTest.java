@@ -32,6 +32,7 @@ class ObserveTest {
     static SparkSession spark;
     static Path out;
     static RasterGrid grid;
+    static PreparedRun prepared;
     /** Surface temperature [K] of each cell at 2026-07-15T12:00Z (14:00 local), NaN without material. */
     static double[] atNoonUtc;
 
@@ -46,6 +47,7 @@ class ObserveTest {
         Path rf = CityFixture.write(dir.resolve("in"), 256, "  hourly_days: [2026-07-15]");
         PreparedRun p = RunPreparer.prepare(RunFileReader.read(rf));
         grid = p.grid();
+        prepared = p;
         out = dir.resolve("out");
         CityJob.run(spark, p, new CityJob.Options(out, null, false, true, 0), new PrintStream(PrintStream.nullOutputStream()));
         atNoonUtc = new double[grid.width() * grid.height()];
@@ -188,5 +190,35 @@ class ObserveTest {
         assertFalse(Files.exists(fresh.resolve("observed")));
         assertFalse(Files.exists(fresh.resolve(".observed.tmp")));
         assertTrue(Files.exists(img));
+    }
+
+    /**
+     * --calibrate's job on the tiny run: albedo of every material dominating an observed pixel,
+     * fitted to the noisy 14:00 image; the calibrated file reads back through MaterialsFile, the
+     * sample's RMSE does not grow, and a second fit writes byte-identical files (fixed seed).
+     * Recovery of known values is checked in the model (CalibrationTest).
+     */
+    @Test
+    void calibrationWritesAMaterialsFileThatReadsBack() throws Exception {
+        image("cal", 0.5, false);
+        var set = ObservationSet.read(observations("cal", """
+                  - {file: cal.tif, time: "2026-07-15T12:00:00Z", nodata: -9999}
+                """));
+        var views = Observe.run(spark, out, set).stream()
+                .map(org.thermotile.jobs.observe.Calibrate.ObserveResultView::of).toList();
+        var fit = org.thermotile.jobs.observe.Calibrate.run(out, prepared, views, List.of("albedo"));
+        String d = fit.estimates() + " RMSE " + fit.rmseBeforeK() + " -> " + fit.rmseAfterK();
+        assertFalse(fit.estimates().isEmpty(), d);
+        assertTrue(fit.rmseAfterK() <= fit.rmseBeforeK() + 1e-9, d);
+        Path yaml = out.resolve("observed/calibrated_materials.yaml");
+        var read = org.thermotile.jobs.io.MaterialsFile.read(yaml);
+        assertFalse(read.isEmpty(), Files.readString(yaml));
+        String csv = Files.readString(out.resolve("observed/calibration.csv"));
+        assertTrue(csv.startsWith("quantity,material,before,after,standard_error,identifiable,note\n"), csv);
+        String y1 = Files.readString(yaml);
+        org.thermotile.jobs.observe.Calibrate.run(out, prepared, views, List.of("albedo"));
+        assertEquals(y1, Files.readString(yaml), "same inputs, same calibrated file");
+        assertEquals(csv, Files.readString(out.resolve("observed/calibration.csv")));
+        assertThrows(UserInputException.class, () -> org.thermotile.jobs.observe.Calibrate.keys("albedo,albdo"));
     }
 }

@@ -119,10 +119,12 @@ public final class Calibration {
      * observed surface temperature of each pixel [K] (NaN where none).
      *
      * @param dominant  per pixel, an index into the palette or {@link TileSimulation#NO_MATERIAL}
-     * @param hours     forcing hour index of each observation
+     * @param hours     time of each observation as a forcing hour index, fractional between hours
+     *                  (the simulated temperature is then linear between the two hours, as in the
+     *                  comparison)
      * @param observedK [observation][pixel] surface temperature [K], NaN where not observed
      */
-    public record Observed(int[] dominant, int[] hours, double[][] observedK) {
+    public record Observed(int[] dominant, double[] hours, double[][] observedK) {
         public Observed {
             if (hours.length != observedK.length || hours.length == 0) {
                 throw new IllegalArgumentException("need one or more observations, each with its hour");
@@ -349,6 +351,9 @@ public final class Calibration {
         private final int[] cells;
         /** [observation][sampled cell] observed [K]. */
         private final double[][] observed;
+        /** Per observation: index of its earlier hour in the kernel's hourly outputs, and the weight of the later. */
+        private final int[] output0;
+        private final double[] weight1;
         private final int residuals;
         int evaluations;
 
@@ -357,10 +362,10 @@ public final class Calibration {
             this.base = base.clone();
             this.free = List.copyOf(free);
             this.forcing = forcing;
-            for (int h : obs.hours()) {
-                if (h < 0 || h >= forcing.hours()) {
-                    throw new IllegalArgumentException("observation hour " + h + " is outside the forcing's "
-                            + forcing.hours() + " hours");
+            for (double h : obs.hours()) {
+                if (!(h >= s.firstSampleHour() && h <= forcing.hours() - 1)) {
+                    throw new IllegalArgumentException("observation hour " + h + " is outside the sampled hours "
+                            + s.firstSampleHour() + " … " + (forcing.hours() - 1) + " of the forcing (spin-up excluded)");
                 }
             }
             for (Parameter p : free) {
@@ -369,8 +374,20 @@ public final class Calibration {
                             + p.material() + ", outside the palette of " + base.length);
                 }
             }
+            // Hourly outputs: for each observation its hour and the next (the last hour pairs with itself).
+            int nObs = obs.hours().length;
+            int[] outHours = new int[2 * nObs];
+            output0 = new int[nObs];
+            weight1 = new double[nObs];
+            for (int k = 0; k < nObs; k++) {
+                int h0 = (int) Math.min(Math.floor(obs.hours()[k]), forcing.hours() - 1);
+                outHours[2 * k] = h0;
+                outHours[2 * k + 1] = Math.min(h0 + 1, forcing.hours() - 1);
+                output0[k] = 2 * k;
+                weight1[k] = obs.hours()[k] - h0;
+            }
             this.settings = new TileSimulation.Settings(s.substepMinutes(), s.convection(), s.deepGroundK(),
-                    s.firstSampleHour(), s.thresholdK(), obs.hours());
+                    s.firstSampleHour(), s.thresholdK(), outHours);
             cells = new int[sample.length];
             observed = new double[obs.hours().length][sample.length];
             int m = 0;
@@ -416,7 +433,9 @@ public final class Calibration {
             for (int c = 0; c < cells.length; c++) {
                 for (int k = 0; k < observed.length; k++) {
                     if (!Double.isNaN(observed[k][c])) {
-                        r[i++] = res.hourlyC[k][c] + Physical.ZERO_CELSIUS_K - observed[k][c];
+                        double a = res.hourlyC[output0[k]][c];
+                        double b = res.hourlyC[output0[k] + 1][c];
+                        r[i++] = a + weight1[k] * (b - a) + Physical.ZERO_CELSIUS_K - observed[k][c];
                     }
                 }
             }

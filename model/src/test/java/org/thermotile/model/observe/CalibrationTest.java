@@ -81,7 +81,7 @@ class CalibrationTest {
                 obs[k][p] = res.hourlyC[k][p] + Physical.ZERO_CELSIUS_K + 0.5 * rnd.nextGaussian();
             }
         }
-        return new Calibration.Observed(d, hours, obs);
+        return new Calibration.Observed(d, java.util.Arrays.stream(hours).asDoubleStream().toArray(), obs);
     }
 
     private static final List<Calibration.Parameter> FREE = List.of(Calibration.Parameter.of(0, "albedo"),
@@ -152,7 +152,7 @@ class CalibrationTest {
         int[] d = {0, 1, 1, 1, 1, 1, 1, 0, 1, -1, 1, 0};
         double[] o = new double[d.length];
         o[11] = Double.NaN; // pixel 11 (material 0) has no observation
-        var obs = new Calibration.Observed(d, new int[] {night22}, new double[][] {o});
+        var obs = new Calibration.Observed(d, new double[] {night22}, new double[][] {o});
         int[] s = Calibration.stratifiedSample(obs, 2, 3, 5);
         assertEquals(5, s.length, java.util.Arrays.toString(s)); // 2 eligible of material 0, 3 of material 1
         assertTrue((s[0] == 0 || s[0] == 7) && (s[1] == 0 || s[1] == 7) && s[0] != s[1], java.util.Arrays.toString(s));
