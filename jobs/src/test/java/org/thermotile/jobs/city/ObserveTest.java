@@ -33,6 +33,7 @@ class ObserveTest {
     static Path out;
     static RasterGrid grid;
     static PreparedRun prepared;
+    static Path runFile;
     /** Surface temperature [K] of each cell at 2026-07-15T12:00Z (14:00 local), NaN without material. */
     static double[] atNoonUtc;
 
@@ -48,6 +49,7 @@ class ObserveTest {
         PreparedRun p = RunPreparer.prepare(RunFileReader.read(rf));
         grid = p.grid();
         prepared = p;
+        runFile = rf;
         out = dir.resolve("out");
         CityJob.run(spark, p, new CityJob.Options(out, null, false, true, 0), new PrintStream(PrintStream.nullOutputStream()));
         atNoonUtc = new double[grid.width() * grid.height()];
@@ -220,5 +222,23 @@ class ObserveTest {
         assertEquals(y1, Files.readString(yaml), "same inputs, same calibrated file");
         assertEquals(csv, Files.readString(out.resolve("observed/calibration.csv")));
         assertThrows(UserInputException.class, () -> org.thermotile.jobs.observe.Calibrate.keys("albedo,albdo"));
+    }
+
+    /** The command's own checks: --calibrate without --run-file, or with an unknown key, is exit 2 before anything runs. */
+    @Test
+    void calibrateOptionsAreCheckedFirst() throws Exception {
+        image("opt", 0, false);
+        Path yaml = observations("opt", """
+                  - {file: opt.tif, time: "2026-07-15T12:00:00Z", nodata: -9999}
+                """);
+        Path empty = dir.resolve("empty-run");
+        Files.createDirectories(empty);
+        assertEquals(2, org.thermotile.jobs.cli.Main.execute("observe", empty.toString(), "--observations",
+                yaml.toString(), "--calibrate", "albedo"));
+        assertEquals(2, org.thermotile.jobs.cli.Main.execute("observe", empty.toString(), "--observations",
+                yaml.toString(), "--calibrate", "albedo,albdo", "--run-file", runFile.toString()));
+        try (var files = Files.list(empty)) {
+            assertEquals(0, files.count(), "nothing written");
+        }
     }
 }
