@@ -98,9 +98,9 @@ public final class Calibrate {
             fit = Calibration.fit(palette, free, new Calibration.Observed(dominant, hours, observed), forcing,
                     run.spec().settings(), PER_STRATUM, SEED, MAX_EVALUATIONS);
         } catch (IllegalArgumentException e) {
-            throw new UserInputException(runDir + ": calibration cannot start: " + e.getMessage()
-                    + "; fix: check that --run-file is the run file of this run and the images' times lie in its "
-                    + "kept hours");
+            throw new UserInputException(runDir + ": calibration: " + e.getMessage() + " (if the run file or the "
+                    + "times are in question: --run-file must be this run's run file, and the images' times must lie "
+                    + "in its kept hours)");
         }
         Path dir = runDir.resolve("observed");
         try {

@@ -208,6 +208,8 @@ public final class Calibration {
      * @param perStratum pixels per material in the sample
      * @param seed       sampling seed
      * @param maxEvaluations cap on kernel runs for the optimiser
+     * @throws IllegalArgumentException when the optimiser does not converge within the cap (the
+     *                                  message says to free fewer parameters)
      */
     public static Fit fit(Material[] palette, List<Parameter> free, Observed obs, Forcing forcing,
             TileSimulation.Settings settings, int perStratum, long seed, int maxEvaluations) {
@@ -226,6 +228,18 @@ public final class Calibration {
         }
         double[] r0 = pr.residuals(u0);
         double[] uBest;
+        try {
+            uBest = optimise(pr, u0, maxEvaluations);
+        } catch (org.apache.commons.math3.exception.TooManyEvaluationsException e) {
+            throw new IllegalArgumentException("the fit of " + n + " parameters did not converge within "
+                    + maxEvaluations + " kernel runs; calibrate fewer parameters (keys or materials) at once");
+        }
+        return finish(pr, free, start, r0, uBest);
+    }
+
+    private static double[] optimise(Problem pr, double[] u0, int maxEvaluations) {
+        int n = u0.length;
+        double[] uBest;
         if (n == 1) {
             UnivariateFunction f = x -> sumSquares(pr.residuals(new double[] {x}));
             UnivariatePointValuePair best = new BrentOptimizer(1e-8, 1e-10).optimize(new MaxEval(maxEvaluations),
@@ -241,6 +255,11 @@ public final class Calibration {
                     new ObjectiveFunction(f), GoalType.MINIMIZE, new InitialGuess(u0), new SimpleBounds(lower, upper));
             uBest = best.getPoint();
         }
+        return uBest;
+    }
+
+    private static Fit finish(Problem pr, List<Parameter> free, double[] start, double[] r0, double[] uBest) {
+        int n = uBest.length;
         double[] r = pr.residuals(uBest);
         int m = r.length;
         // Jacobian in the parameters' own units, central differences (one-sided at a bound).
@@ -262,7 +281,7 @@ public final class Calibration {
         double s = sumSquares(r);
         double sigma2 = m > n ? s / (m - n) : Double.NaN;
         List<Estimate> est = uncertainty(free, start, pr.values(uBest), jac, sigma2);
-        return new Fit(pr.palette(uBest), est, sample, m, Math.sqrt(sumSquares(r0) / m), Math.sqrt(s / m),
+        return new Fit(pr.palette(uBest), est, pr.sample, m, Math.sqrt(sumSquares(r0) / m), Math.sqrt(s / m),
                 mean(r0), mean(r), pr.evaluations);
     }
 
@@ -355,6 +374,7 @@ public final class Calibration {
         private final int[] output0;
         private final double[] weight1;
         private final int residuals;
+        final int[] sample;
         int evaluations;
 
         Problem(Material[] base, List<Parameter> free, Observed obs, Forcing forcing, TileSimulation.Settings s,
@@ -388,6 +408,7 @@ public final class Calibration {
             }
             this.settings = new TileSimulation.Settings(s.substepMinutes(), s.convection(), s.deepGroundK(),
                     s.firstSampleHour(), s.thresholdK(), outHours);
+            this.sample = sample.clone();
             cells = new int[sample.length];
             observed = new double[obs.hours().length][sample.length];
             int m = 0;

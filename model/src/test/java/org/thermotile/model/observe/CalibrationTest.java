@@ -159,4 +159,12 @@ class CalibrationTest {
         assertEquals(3, java.util.Arrays.stream(s, 2, 5).distinct().filter(p -> d[p] == 1).count());
         assertEquals(java.util.Arrays.toString(s), java.util.Arrays.toString(Calibration.stratifiedSample(obs, 2, 3, 5)));
     }
+
+    /** A cap too small for BOBYQA (its 2n + 1 = 5 starting points and a few steps) is a clear error, not a silent stop. */
+    @Test
+    void tooFewEvaluationsIsAClearError() {
+        var e = org.junit.jupiter.api.Assertions.assertThrows(IllegalArgumentException.class,
+                () -> Calibration.fit(LIBRARY, FREE, observe(day13, night22), forcing, settings, 5, 11, 8));
+        assertTrue(e.getMessage().contains("did not converge within 8 kernel runs"), e.getMessage());
+    }
 }
