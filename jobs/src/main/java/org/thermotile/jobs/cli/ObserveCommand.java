@@ -25,14 +25,49 @@ final class ObserveCommand implements Callable<Integer> {
             description = "YAML file with an 'observations:' list of images")
     Path observations;
 
+    @Option(names = "--calibrate", paramLabel = "KEYS",
+            description = "also fit these material parameters to the images (comma-separated: albedo, emissivity, "
+                    + "moisture_availability, anthropogenic_heat) for every material that dominates an observed "
+                    + "pixel; writes observed/calibrated_materials.yaml and observed/calibration.csv")
+    String calibrate;
+
+    @Option(names = "--run-file", paramLabel = "RUN.yaml",
+            description = "the run file of RUN_DIR (needed by --calibrate for the forcing and the materials)")
+    Path runFile;
+
     @Override
     public Integer call() throws Exception {
         ObservationSet set = ObservationSet.read(observations);
+        java.util.List<String> keys = null;
+        org.thermotile.jobs.city.PreparedRun prepared = null;
+        if (calibrate != null) {
+            keys = org.thermotile.jobs.observe.Calibrate.keys(calibrate);
+            if (runFile == null) {
+                throw new UserInputException("--calibrate needs --run-file RUN.yaml, the run file of " + runDir
+                        + " (for its forcing and materials); fix: add it");
+            }
+            prepared = org.thermotile.jobs.city.RunPreparer.prepare(
+                    org.thermotile.jobs.config.RunFileReader.read(runFile));
+        }
+        java.util.List<Observe.ImageResult> results;
         try (SparkSession spark = SparkSessions.get(null, 0)) {
-            for (Observe.ImageResult r : Observe.run(spark, runDir, set)) {
+            results = Observe.run(spark, runDir, set);
+            for (Observe.ImageResult r : results) {
                 System.out.printf(Locale.ROOT, "%s: %d pixels, bias %.2f K, RMSE %.2f K, MAE %.2f K, r %.3f%n",
                         r.name(), r.all().count(), r.all().bias(), r.all().rmse(), r.all().mae(), r.all().pearson());
             }
+        }
+        if (keys != null) {
+            System.out.println("calibrating " + String.join(", ", keys) + " (plain Java over a stratified sample)…");
+            var fit = org.thermotile.jobs.observe.Calibrate.run(runDir, prepared,
+                    results.stream().map(org.thermotile.jobs.observe.Calibrate.ObserveResultView::of).toList(), keys);
+            for (var e : fit.estimates()) {
+                System.out.printf(Locale.ROOT, "  %s %s: %.4f -> %.4f +/- %.4f%s%n",
+                        fit.palette()[e.parameter().material()].id(), e.parameter().key(), e.start(), e.value(),
+                        e.standardError(), e.identifiable() ? "" : "  WARNING: not identifiable (" + e.why() + ")");
+            }
+            System.out.printf(Locale.ROOT, "  sample RMSE %.2f K -> %.2f K (%d kernel runs)%n", fit.rmseBeforeK(),
+                    fit.rmseAfterK(), fit.evaluations());
         }
         System.out.println("comparison written to " + runDir.resolve("observed")
                 + " (agreement.csv, pairs.csv, difference_*.tif, CAUTIONS.txt)");

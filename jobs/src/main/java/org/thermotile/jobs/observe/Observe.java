@@ -51,7 +51,8 @@ public final class Observe {
 
     /** What one image gave. */
     public record ImageResult(String name, Agreement all, Map<String, Agreement> byMaterial,
-            Map<String, Agreement> byDistrict, float[] difference, double[] simulated, double[] observed) {}
+            Map<String, Agreement> byDistrict, float[] difference, double[] simulated, double[] observed,
+            Instant time, String[] dominantMaterial) {}
 
     /** Runs the comparison and writes {@code runDir/observed/}; returns the results per image. */
     public static List<ImageResult> run(SparkSession spark, Path runDir, ObservationSet set) {
@@ -256,6 +257,7 @@ public final class Observe {
         Map<String, Agreement> byMat = new TreeMap<>();
         Map<String, Agreement> byDist = new TreeMap<>();
         double[] simPix = new double[p.observedK().length];
+        String[] dominantOf = new String[simPix.length];
         for (int px = 0; px < simPix.length; px++) {
             PixelFootprints.Footprint f = p.footprints().get(px);
             double o = p.observedK()[px];
@@ -268,6 +270,7 @@ public final class Observe {
             all.add(s, o);
             // A pixel counts for the material and district that cover most of it.
             String m = dominant(f, material);
+            dominantOf[px] = m;
             if (m != null) {
                 byMat.computeIfAbsent(m, k -> new Agreement()).add(s, o);
             }
@@ -283,7 +286,8 @@ public final class Observe {
             double d = px < 0 || Double.isNaN(sim[i]) ? Double.NaN : simPix[px] - p.observedK()[px];
             diff[i] = Double.isNaN(d) ? org.thermotile.jobs.city.CityJob.MAP_NODATA : (float) d;
         }
-        return new ImageResult(p.image().name(), all, byMat, byDist, diff, simPix, p.observedK());
+        return new ImageResult(p.image().name(), all, byMat, byDist, diff, simPix, p.observedK(), p.image().time(),
+                dominantOf);
     }
 
     private static String dominant(PixelFootprints.Footprint f, String[] label) {

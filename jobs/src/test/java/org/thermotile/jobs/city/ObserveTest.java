@@ -32,6 +32,8 @@ class ObserveTest {
     static SparkSession spark;
     static Path out;
     static RasterGrid grid;
+    static PreparedRun prepared;
+    static Path runFile;
     /** Surface temperature [K] of each cell at 2026-07-15T12:00Z (14:00 local), NaN without material. */
     static double[] atNoonUtc;
 
@@ -46,6 +48,8 @@ class ObserveTest {
         Path rf = CityFixture.write(dir.resolve("in"), 256, "  hourly_days: [2026-07-15]");
         PreparedRun p = RunPreparer.prepare(RunFileReader.read(rf));
         grid = p.grid();
+        prepared = p;
+        runFile = rf;
         out = dir.resolve("out");
         CityJob.run(spark, p, new CityJob.Options(out, null, false, true, 0), new PrintStream(PrintStream.nullOutputStream()));
         atNoonUtc = new double[grid.width() * grid.height()];
@@ -188,5 +192,53 @@ class ObserveTest {
         assertFalse(Files.exists(fresh.resolve("observed")));
         assertFalse(Files.exists(fresh.resolve(".observed.tmp")));
         assertTrue(Files.exists(img));
+    }
+
+    /**
+     * --calibrate's job on the tiny run: albedo of every material dominating an observed pixel,
+     * fitted to the noisy 14:00 image; the calibrated file reads back through MaterialsFile, the
+     * sample's RMSE does not grow, and a second fit writes byte-identical files (fixed seed).
+     * Recovery of known values is checked in the model (CalibrationTest).
+     */
+    @Test
+    void calibrationWritesAMaterialsFileThatReadsBack() throws Exception {
+        image("cal", 0.5, false);
+        var set = ObservationSet.read(observations("cal", """
+                  - {file: cal.tif, time: "2026-07-15T12:00:00Z", nodata: -9999}
+                """));
+        var views = Observe.run(spark, out, set).stream()
+                .map(org.thermotile.jobs.observe.Calibrate.ObserveResultView::of).toList();
+        var fit = org.thermotile.jobs.observe.Calibrate.run(out, prepared, views, List.of("albedo"));
+        String d = fit.estimates() + " RMSE " + fit.rmseBeforeK() + " -> " + fit.rmseAfterK();
+        assertFalse(fit.estimates().isEmpty(), d);
+        assertTrue(fit.rmseAfterK() <= fit.rmseBeforeK() + 1e-9, d);
+        Path yaml = out.resolve("observed/calibrated_materials.yaml");
+        var read = org.thermotile.jobs.io.MaterialsFile.read(yaml);
+        assertFalse(read.isEmpty(), Files.readString(yaml));
+        String csv = Files.readString(out.resolve("observed/calibration.csv"));
+        assertTrue(csv.startsWith("quantity,material,before,after,standard_error,identifiable,note\n"), csv);
+        String y1 = Files.readString(yaml);
+        org.thermotile.jobs.observe.Calibrate.run(out, prepared, views, List.of("albedo"));
+        assertEquals(y1, Files.readString(yaml), "same inputs, same calibrated file");
+        assertEquals(csv, Files.readString(out.resolve("observed/calibration.csv")));
+        assertThrows(UserInputException.class, () -> org.thermotile.jobs.observe.Calibrate.keys("albedo,albdo"));
+    }
+
+    /** The command's own checks: --calibrate without --run-file, or with an unknown key, is exit 2 before anything runs. */
+    @Test
+    void calibrateOptionsAreCheckedFirst() throws Exception {
+        image("opt", 0, false);
+        Path yaml = observations("opt", """
+                  - {file: opt.tif, time: "2026-07-15T12:00:00Z", nodata: -9999}
+                """);
+        Path empty = dir.resolve("empty-run");
+        Files.createDirectories(empty);
+        assertEquals(2, org.thermotile.jobs.cli.Main.execute("observe", empty.toString(), "--observations",
+                yaml.toString(), "--calibrate", "albedo"));
+        assertEquals(2, org.thermotile.jobs.cli.Main.execute("observe", empty.toString(), "--observations",
+                yaml.toString(), "--calibrate", "albedo,albdo", "--run-file", runFile.toString()));
+        try (var files = Files.list(empty)) {
+            assertEquals(0, files.count(), "nothing written");
+        }
     }
 }
