@@ -5,6 +5,7 @@ import java.util.Locale;
 import java.util.concurrent.Callable;
 import org.apache.spark.sql.SparkSession;
 import org.thermotile.jobs.city.SparkSessions;
+import org.thermotile.jobs.errors.UserInputException;
 import org.thermotile.jobs.observe.Observe;
 import org.thermotile.jobs.observe.ObservationSet;
 import picocli.CommandLine.Command;

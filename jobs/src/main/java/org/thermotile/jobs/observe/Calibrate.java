@@ -6,7 +6,7 @@ import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
 import org.thermotile.jobs.city.PreparedRun;
-import org.thermotile.jobs.cli.UserInputException;
+import org.thermotile.jobs.errors.UserInputException;
 import org.thermotile.model.forcing.Forcing;
 import org.thermotile.model.materials.Material;
 import org.thermotile.model.observe.Calibration;
