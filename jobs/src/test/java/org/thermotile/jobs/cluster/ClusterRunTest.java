@@ -135,11 +135,13 @@ class ClusterRunTest {
                         || l.matches(".*Starting task \\d+\\.[1-9] in stage.*")).toList();
         evidence.forEach(l -> System.out.println("  fault run driver log: " + l));
         assertEquals(2, evidence.stream().filter(l -> l.contains("Lost executor")).count(), "two executors lost");
+        // A second attempt (task N.1) starts only when the first one failed. Spark logs that failure
+        // as "Lost task N.0" in most runs, but when the executor's loss reaches the scheduler before
+        // its task's status does, the attempt is resubmitted without that line (seen once on a loaded
+        // machine), so the retry is the evidence asserted.
         for (int tile : new int[] {0, 3}) {
-            assertTrue(evidence.stream().anyMatch(l -> l.matches(".*Lost task " + tile + "\\.0 in stage 0\\.0.*")),
-                    "tile " + tile + "'s first attempt was lost");
             assertTrue(evidence.stream().anyMatch(l -> l.matches(".*Starting task " + tile + "\\.1 in stage 0\\.0.*")),
-                    "tile " + tile + " was retried");
+                    "tile " + tile + "'s first attempt was lost and the tile retried");
         }
         assertSameOutputs(embedded, out);
         assertNoDuplicateRows(out);
