@@ -92,6 +92,50 @@ public record AnalysisGrid(int factor, int width, int height, double[] mean, dou
     }
 
     /**
+     * Default minimum coverage of an analysis unit (analysis cell or zone): 0.5, half its area
+     * holding valid simulation cells (our choice: a unit mostly outside the data, at the grid's
+     * edge or over no-data, is described by too few cells to stand for its area).
+     */
+    public static final double DEFAULT_MIN_COVERAGE = 0.5;
+
+    /** Relative tolerance on the coverage test, so a unit exactly at the minimum is kept (our choice). */
+    static final double COVERAGE_TOLERANCE = 1e-9;
+
+    /** True when a unit of coverage {@code coverage} is kept at minimum coverage {@code min}. */
+    public static boolean covered(double coverage, double min) {
+        return coverage > 0 && coverage >= min * (1 - COVERAGE_TOLERANCE);
+    }
+
+    /**
+     * This grid with the cells below minimum coverage {@code min} (in [0, 1]) left out: their mean
+     * becomes NaN (no data for Gi*, the global moments and the median), their valid area and
+     * coverage are kept as computed, so the share of data each cell had stays visible. A new grid.
+     */
+    public AnalysisGrid withMinCoverage(double min) {
+        if (!(min >= 0) || min > 1) {
+            throw new IllegalArgumentException("minimum coverage " + min + " must lie in [0, 1]");
+        }
+        double[] m = mean.clone();
+        for (int k = 0; k < m.length; k++) {
+            if (!covered(coverage[k], min)) {
+                m[k] = Double.NaN;
+            }
+        }
+        return new AnalysisGrid(factor, width, height, m, validAreaM2, coverage);
+    }
+
+    /** Number of cells with some data but coverage below {@code min}: those {@link #withMinCoverage} leaves out. */
+    public int belowCoverage(double min) {
+        int n = 0;
+        for (int k = 0; k < mean.length; k++) {
+            if (!Double.isNaN(mean[k]) && !covered(coverage[k], min)) {
+                n++;
+            }
+        }
+        return n;
+    }
+
+    /**
      * Area-weighted means over zones (blocks, parcels, districts): x̄_z = Σ_{i∈z} a x_i / Σ_{i∈z} a
      * over the valid cells whose zone is z (−1: none).
      *

@@ -90,6 +90,14 @@ public final class MoransI {
                 sumRow2 += rowSum * rowSum;
             }
         }
+        return fromSums(distanceM, n, s0, sumRow2, cross, m2);
+    }
+
+    /**
+     * I, E[I], Var[I] and z from the sums of symmetric binary weights (any support: raster cells or
+     * zone centroids): n valid units, S₀ = Σ_i w_i·, Σ_i w_i·², Σ_i z_i Σ_j w_ij z_j and Σ_i z_i².
+     */
+    static Result fromSums(double distanceM, int n, double s0, double sumRow2, double cross, double m2) {
         double e = -1.0 / (n - 1);
         if (s0 == 0 || m2 == 0) {
             return new Result(distanceM, Double.NaN, e, Double.NaN, Double.NaN);

@@ -90,4 +90,67 @@ class AnalysisGridTest {
         AnalysisGrid e = new AnalysisGrid(1, 4, 1, new double[] {10, 1, 9, 2}, new double[] {1, 1, 1, 1}, new double[4]);
         assertEquals(2.0, e.weightedMedian(), 0.0);
     }
+
+    /**
+     * Coverage rule: a 23 × 20 raster of 4 m cells at f = 10 leaves a last column of analysis
+     * cells 3 cells wide, 30 % covered; at the default minimum coverage (0.5) they are left out
+     * (mean NaN) with their coverage kept, and the full cells keep their means bit for bit. Each
+     * kept or dropped mean is the exact area-weighted mean of its cells (values chosen so sums are
+     * exact in binary: the aggregation is exact, not merely within rounding).
+     */
+    @Test
+    void anEdgeCellThirtyPercentCoveredIsLeftOutAtTheDefault() {
+        int w = 23, h = 20, f = 10;
+        float[] v = new float[w * h];
+        for (int r = 0; r < h; r++) {
+            for (int c = 0; c < w; c++) {
+                v[r * w + c] = (c % 4) * 0.25f + r;          // exact binary fractions
+            }
+        }
+        AnalysisGrid g = AnalysisGrid.aggregate(v, w, h, 16.0, f);
+        assertEquals(3, g.width());
+        assertEquals(2, g.height());
+        for (int ar = 0; ar < 2; ar++) {
+            for (int ac = 0; ac < 3; ac++) {
+                double sum = 0, area = 0;
+                for (int r = ar * f; r < ar * f + f; r++) {
+                    for (int c = ac * f; c < Math.min(w, ac * f + f); c++) {
+                        sum += 16.0 * v[r * w + c];
+                        area += 16.0;
+                    }
+                }
+                assertEquals(sum / area, g.mean()[ar * 3 + ac], 0.0, "cell " + ac + ", " + ar);
+                assertEquals(area, g.validAreaM2()[ar * 3 + ac], 0.0);
+            }
+            assertEquals(0.3, g.coverage()[ar * 3 + 2], 1e-15);
+        }
+        AnalysisGrid kept = g.withMinCoverage(AnalysisGrid.DEFAULT_MIN_COVERAGE);
+        assertEquals(2, g.belowCoverage(AnalysisGrid.DEFAULT_MIN_COVERAGE));
+        for (int ar = 0; ar < 2; ar++) {
+            assertTrue(Double.isNaN(kept.mean()[ar * 3 + 2]), "30 % edge cell left out");
+            assertEquals(0.3, kept.coverage()[ar * 3 + 2], 1e-15, "coverage carried");
+            for (int ac = 0; ac < 2; ac++) {
+                assertEquals(g.mean()[ar * 3 + ac], kept.mean()[ar * 3 + ac], 0.0);
+            }
+        }
+        // At a minimum of 0.3 the edge cells stay (the minimum itself is kept); at 0 every cell with data stays.
+        assertEquals(0, g.belowCoverage(0.3));
+        assertEquals(g.mean()[2], g.withMinCoverage(0.3).mean()[2], 0.0);
+        assertEquals(0, g.belowCoverage(0));
+        assertThrows(IllegalArgumentException.class, () -> g.withMinCoverage(1.5));
+        // The median leaves the dropped cells out: full cells only.
+        AnalysisGrid full = AnalysisGrid.aggregate(java.util.Arrays.copyOf(v, v.length), w, h, 16.0, f);
+        assertEquals(kept.weightedMedian(), medianOfColumns(full, 2), 0.0);
+    }
+
+    private static double medianOfColumns(AnalysisGrid g, int columns) {
+        double[] m = new double[g.height() * columns];
+        for (int r = 0; r < g.height(); r++) {
+            for (int c = 0; c < columns; c++) {
+                m[r * columns + c] = g.mean()[r * g.width() + c];
+            }
+        }
+        java.util.Arrays.sort(m);
+        return m[(m.length - 1) / 2];     // lower median of equal areas
+    }
 }
