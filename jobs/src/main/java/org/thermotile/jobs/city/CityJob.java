@@ -336,6 +336,10 @@ public final class CityJob {
         if (hs != null) {
             for (String stat : hs.statistics()) {
                 org.thermotile.jobs.hotspots.Hotspots.run(spark, lay.dir(), hs.options(stat, p.run().tiling().tileSize()));
+                if (hs.zoneOptions() != null) {
+                    org.thermotile.jobs.hotspots.ZoneHotspots.run(spark, lay.dir(),
+                            hs.options(stat, p.run().tiling().tileSize()), hs.zoneOptions());
+                }
             }
         }
         return s;

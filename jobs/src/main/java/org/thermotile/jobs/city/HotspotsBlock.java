@@ -25,13 +25,17 @@ import org.thermotile.model.hotspot.FalseDiscovery;
  *   fdr_method: bh            # or by (Benjamini–Yekutieli)
  *   min_excess_k: 1           # smallest excess over the city's median that counts [K]
  *   min_area_m2: 3200         # smallest area kept [m²]
+ *   min_coverage: 0.5         # analysis cells (zones) with less data than this share are left out
+ *   zones: blocks.geojson     # optional: Gi* on these polygons too (relative to the run file)
+ *   zone_id: block_ref        # the zones' id property (default id)
  * </pre>
  */
 record HotspotsBlock(List<String> statistics, double distanceM, DistanceBand.Weights weights, double fdr,
-        double cellSizeM, FalseDiscovery fdrMethod, double minExcessK, double minAreaM2) {
+        double cellSizeM, FalseDiscovery fdrMethod, double minExcessK, double minAreaM2, double minCoverage,
+        java.nio.file.Path zones, String zoneId) {
 
     static final List<String> KEYS = List.of("statistics", "cell_size_m", "distance_m", "weights", "fdr", "fdr_method",
-            "min_excess_k", "min_area_m2");
+            "min_excess_k", "min_area_m2", "min_coverage", "zones", "zone_id");
 
     /** The block of {@code run}, checked, or null when there is none. */
     static HotspotsBlock of(RunFile run, double cellM) {
@@ -105,12 +109,43 @@ record HotspotsBlock(List<String> statistics, double distanceM, DistanceBand.Wei
             throw new UserInputException(where + ".min_area_m2: " + n.path("min_area_m2").asText() + " must be a number "
                     + "of m² at least 0. Fix: give e.g. 3200");
         }
-        return new HotspotsBlock(List.copyOf(stats), d, weights, fdr, cell, method, ex, area);
+        double cov = n.path("min_coverage").asDouble(org.thermotile.model.hotspot.AnalysisGrid.DEFAULT_MIN_COVERAGE);
+        if (n.has("min_coverage") && (!n.path("min_coverage").isNumber() || !(cov >= 0 && cov <= 1))) {
+            throw new UserInputException(where + ".min_coverage: " + n.path("min_coverage").asText() + " must be a "
+                    + "share from 0 to 1. Fix: give e.g. 0.5");
+        }
+        java.nio.file.Path zones = null;
+        if (n.has("zones")) {
+            String z = n.path("zones").asText("");
+            if (z.isBlank()) {
+                throw new UserInputException(where + ".zones: give a GeoJSON file of polygons, e.g. zones: blocks.geojson");
+            }
+            java.nio.file.Path base = java.nio.file.Path.of(run.source()).toAbsolutePath().getParent();
+            zones = base == null ? java.nio.file.Path.of(z) : base.resolve(z).normalize();
+            if (!java.nio.file.Files.isRegularFile(zones)) {
+                throw new UserInputException(where + ".zones: " + zones + " not found. Fix: give the zones file's path "
+                        + "(relative to the run file)");
+            }
+            if (!weights.equals(DistanceBand.Weights.BINARY)) {
+                throw new UserInputException(where + ".weights: zones use binary weights over centroid distances. Fix: "
+                        + "drop weights, or run the zones with 'thermotile hotspots --zones'");
+            }
+        } else if (n.has("zone_id")) {
+            throw new UserInputException(where + ".zone_id without zones. Fix: add zones: FILE.geojson, or drop zone_id");
+        }
+        String zoneId = n.path("zone_id").asText(null);
+        return new HotspotsBlock(List.copyOf(stats), d, weights, fdr, cell, method, ex, area, cov, zones, zoneId);
+    }
+
+    /** The zones of the block, or null when it names none. */
+    org.thermotile.jobs.hotspots.ZoneHotspots.ZoneOptions zoneOptions() {
+        return zones == null ? null : new org.thermotile.jobs.hotspots.ZoneHotspots.ZoneOptions(zones, zoneId,
+                "hotspots.zones");
     }
 
     HotspotOptions options(String statistic, int tileSize) {
         return HotspotOptions.of(statistic).withDistance(distanceM, weights).withFdr(fdr).withTileSize(tileSize)
                 .withDistricts(DistrictCells.GEOJSON).withCellSize(cellSizeM).withFdrMethod(fdrMethod)
-                .withEffect(minExcessK, minAreaM2);
+                .withEffect(minExcessK, minAreaM2).withMinCoverage(minCoverage);
     }
 }

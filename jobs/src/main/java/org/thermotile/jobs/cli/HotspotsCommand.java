@@ -9,6 +9,7 @@ import org.thermotile.jobs.city.SparkSessions;
 import org.thermotile.jobs.errors.UserInputException;
 import org.thermotile.jobs.hotspots.HotspotOptions;
 import org.thermotile.jobs.hotspots.Hotspots;
+import org.thermotile.jobs.hotspots.ZoneHotspots;
 import org.thermotile.model.hotspot.DistanceBand.Weights;
 import org.thermotile.model.hotspot.ExcessBand;
 import org.thermotile.model.hotspot.FalseDiscovery;
@@ -75,6 +76,20 @@ public final class HotspotsCommand implements Callable<Integer> {
             description = "smallest hot or cold area kept, in m² (default: ${DEFAULT-VALUE})")
     double minAreaM2;
 
+    @Option(names = "--min-coverage", paramLabel = "SHARE", defaultValue = "0.5",
+            description = "smallest share of an analysis cell or zone that must hold valid simulation cells; units "
+                    + "below it (grid edge, no-data) are left out (default: ${DEFAULT-VALUE})")
+    double minCoverage;
+
+    @Option(names = "--zones", paramLabel = "FILE",
+            description = "GeoJSON polygons (blocks, parcels, districts) in the run's CRS: Gi* on these zones instead "
+                    + "of the analysis grid; writes RUN_DIR/zones/STEM/STATISTIC/ (zones table, CSV, GeoJSON, summary)")
+    Path zones;
+
+    @Option(names = "--zone-id", paramLabel = "PROPERTY",
+            description = "with --zones: the property holding each zone's unique id (default: id)")
+    String zoneId;
+
     @Option(names = "--tile-size", paramLabel = "N", defaultValue = "256",
             description = "cells per tile edge of the parallel pass; results do not depend on it (default: ${DEFAULT-VALUE})")
     int tileSize;
@@ -106,12 +121,35 @@ public final class HotspotsCommand implements Callable<Integer> {
         }
         return new HotspotOptions(statistic, scenario, distanceM == null ? Double.NaN : distanceM, w, fdr, tileSize,
                 replace, org.thermotile.jobs.hotspots.DistrictCells.GEOJSON, ref,
-                cellSizeM == null ? Double.NaN : cellSizeM, fm, minExcessK, minAreaM2);
+                cellSizeM == null ? Double.NaN : cellSizeM, fm, minExcessK, minAreaM2, minCoverage);
+    }
+
+    /** The zones as given, or null for the grid mode. */
+    ZoneHotspots.ZoneOptions zoneOptions() {
+        if (zones == null) {
+            if (zoneId != null) {
+                throw new UserInputException("--zone-id " + zoneId + " without --zones. Fix: add --zones FILE.geojson, "
+                        + "or leave --zone-id out");
+            }
+            return null;
+        }
+        return new ZoneHotspots.ZoneOptions(zones, zoneId, "--zones");
     }
 
     @Override
     public Integer call() {
         HotspotOptions opt = options();
+        ZoneHotspots.ZoneOptions zo = zoneOptions();
+        if (zo != null) {
+            ZoneHotspots.Prepared zp = ZoneHotspots.prepare(runDir, opt, zo);   // every check before Spark starts
+            SparkSession spark = SparkSessions.get(master, threads);
+            try {
+                printZones(ZoneHotspots.run(spark, zp), System.out);
+            } finally {
+                spark.stop();
+            }
+            return 0;
+        }
         Hotspots.Prepared p = Hotspots.prepare(runDir, opt);     // every check before Spark starts
         SparkSession spark = SparkSessions.get(master, threads);
         try {
@@ -127,6 +165,33 @@ public final class HotspotsCommand implements Callable<Integer> {
         Hotspots.Result r = Hotspots.run(spark, runDir, opt);
         print(r, console);
         return r;
+    }
+
+    /** Hot zones listed at most on the console (all are in summary.json and the tables). */
+    static final int ZONES_LISTED = 20;
+
+    static void printZones(ZoneHotspots.Result r, PrintStream out) {
+        out.printf(Locale.ROOT, "%s%s: %d zones, %d with enough coverage, %d tested; city median %.2f %s; %s m band "
+                + "between centroids (%s)%n", r.statistic(), r.scenario() == null ? "" : " (scenario " + r.scenario() + ")",
+                r.zones(), r.included(), r.tested(), r.referenceK(), r.unit(), num(r.distanceM()),
+                r.distanceRule().equals("given") ? "given" : "peak of Moran's I");
+        out.printf(Locale.ROOT, "hot zones (%s q <= %s), largest first: %d; cold zones: %d%n",
+                r.fdrMethod().toUpperCase(Locale.ROOT), r.fdr(), r.hot().size(), r.cold().size());
+        for (int i = 0; i < Math.min(ZONES_LISTED, r.hot().size()); i++) {
+            ZoneHotspots.ZoneRow z = r.hot().get(i);
+            out.printf(Locale.ROOT, "  %-16s %10.0f m²  excess %+.2f K  q %.3g  %s%n", z.id(), z.areaM2(), z.excessK(),
+                    z.q(), z.label());
+        }
+        if (r.hot().size() > ZONES_LISTED) {
+            out.println("  … " + (r.hot().size() - ZONES_LISTED) + " more in summary.json");
+        }
+        r.notes().forEach(n -> out.println("note: " + n));
+        out.println("outputs: " + r.outDir());
+        out.println("Surface temperature is not air temperature nor a heat-health index.");
+    }
+
+    private static String num(double v) {
+        return v == Math.rint(v) && Math.abs(v) < 1e15 ? Long.toString((long) v) : String.format(Locale.ROOT, "%.1f", v);
     }
 
     static void print(Hotspots.Result r, PrintStream out) {

@@ -11,6 +11,7 @@ import org.apache.sis.referencing.CRS;
 import org.apache.sis.referencing.CommonCRS;
 import org.locationtech.jts.algorithm.Orientation;
 import org.locationtech.jts.geom.Coordinate;
+import org.locationtech.jts.geom.Geometry;
 import org.locationtech.jts.geom.LineString;
 import org.locationtech.jts.geom.Polygon;
 import org.opengis.referencing.crs.CoordinateReferenceSystem;
@@ -20,7 +21,7 @@ import org.opengis.util.FactoryException;
 import org.thermotile.jobs.io.raster.RasterGrid;
 
 /**
- * Writes hotspot polygons as GeoJSON FeatureCollections of Polygon features.
+ * Writes hotspot polygons and zones as GeoJSON FeatureCollections of Polygon (or MultiPolygon) features.
  *
  * <ul>
  *   <li>In the grid's CRS: coordinates as computed [m], with the top-level member
@@ -40,8 +41,11 @@ import org.thermotile.jobs.io.raster.RasterGrid;
 final class GeoJsonWriter {
     private GeoJsonWriter() {}
 
-    /** One feature: its polygon in the grid's CRS and its properties (String, Number or null). */
-    record Feature(Polygon geometry, Map<String, Object> properties) {
+    /**
+     * One feature: its Polygon or MultiPolygon in the grid's CRS and its properties (String,
+     * Number, Boolean or null).
+     */
+    record Feature(Geometry geometry, Map<String, Object> properties) {
     }
 
     /** The grid's CRS as an Apache SIS object: from its EPSG code when SIS knows it, else its WKT. */
@@ -101,6 +105,8 @@ final class GeoJsonWriter {
                         g.writeNull();
                     } else if (v instanceof Integer i) {
                         g.writeNumber(i);
+                    } else if (v instanceof Boolean b) {
+                        g.writeBoolean(b);
                     } else if (v instanceof Long l) {
                         g.writeNumber(l);
                     } else if (v instanceof Number n) {
@@ -116,19 +122,38 @@ final class GeoJsonWriter {
                 }
                 g.writeEndObject();
                 g.writeObjectFieldStart("geometry");
-                g.writeStringField("type", "Polygon");
-                g.writeArrayFieldStart("coordinates");
-                writeRing(g, f.geometry().getExteriorRing(), true, mt, scale);
-                for (int h = 0; h < f.geometry().getNumInteriorRing(); h++) {
-                    writeRing(g, f.geometry().getInteriorRingN(h), false, mt, scale);
+                if (f.geometry() instanceof Polygon poly) {
+                    g.writeStringField("type", "Polygon");
+                    writePolygon(g, poly, mt, scale);
+                } else {
+                    g.writeStringField("type", "MultiPolygon");
+                    g.writeArrayFieldStart("coordinates");
+                    for (int k = 0; k < f.geometry().getNumGeometries(); k++) {
+                        g.writeStartArray();
+                        writeRings(g, (Polygon) f.geometry().getGeometryN(k), mt, scale);
+                        g.writeEndArray();
+                    }
+                    g.writeEndArray();
                 }
-                g.writeEndArray();
                 g.writeEndObject();
                 g.writeEndObject();
             }
             g.writeEndArray();
             g.writeEndObject();
             g.writeRaw('\n');
+        }
+    }
+
+    private static void writePolygon(JsonGenerator g, Polygon p, MathTransform mt, double scale) throws IOException {
+        g.writeArrayFieldStart("coordinates");
+        writeRings(g, p, mt, scale);
+        g.writeEndArray();
+    }
+
+    private static void writeRings(JsonGenerator g, Polygon p, MathTransform mt, double scale) throws IOException {
+        writeRing(g, p.getExteriorRing(), true, mt, scale);
+        for (int h = 0; h < p.getNumInteriorRing(); h++) {
+            writeRing(g, p.getInteriorRingN(h), false, mt, scale);
         }
     }
 

@@ -2,6 +2,7 @@ package org.thermotile.jobs.hotspots;
 
 import java.util.Locale;
 import org.thermotile.jobs.errors.UserInputException;
+import org.thermotile.model.hotspot.AnalysisGrid;
 import org.thermotile.model.hotspot.DistanceBand.Weights;
 import org.thermotile.model.hotspot.ExcessBand;
 import org.thermotile.model.hotspot.FalseDiscovery;
@@ -25,10 +26,13 @@ import org.thermotile.model.hotspot.FalseDiscovery;
  * @param fdrMethod  Benjamini–Hochberg or Benjamini–Yekutieli (null: BH)
  * @param minExcessK Δ₀, the smallest excess over the city's median that counts [K]
  * @param minAreaM2  smallest hot or cold polygon kept [m²]
+ * @param minCoverage smallest share of an analysis cell (or zone) that must hold valid simulation
+ *                   cells for it to be analysed, in [0, 1] (NaN: {@link AnalysisGrid#DEFAULT_MIN_COVERAGE});
+ *                   units below it are left out of Gi*, the global moments and the median
  */
 public record HotspotOptions(String statistic, String scenario, double distanceM, Weights weights, double fdr,
         int tileSize, boolean replace, DistrictCells.Loader districts, Reference reference, double cellSizeM,
-        FalseDiscovery fdrMethod, double minExcessK, double minAreaM2) {
+        FalseDiscovery fdrMethod, double minExcessK, double minAreaM2, double minCoverage) {
 
     /**
      * Default analysis cell: 40 m, planning scale (a city block or a street frontage, the unit a
@@ -50,7 +54,7 @@ public record HotspotOptions(String statistic, String scenario, double distanceM
     public HotspotOptions(String statistic, String scenario, double distanceM, Weights weights, double fdr,
             int tileSize, boolean replace, DistrictCells.Loader districts, Reference reference) {
         this(statistic, scenario, distanceM, weights, fdr, tileSize, replace, districts, reference, Double.NaN,
-                FalseDiscovery.BH, DEFAULT_MIN_EXCESS_K, DEFAULT_MIN_AREA_M2);
+                FalseDiscovery.BH, DEFAULT_MIN_EXCESS_K, DEFAULT_MIN_AREA_M2, AnalysisGrid.DEFAULT_MIN_COVERAGE);
     }
 
     /**
@@ -111,6 +115,13 @@ public record HotspotOptions(String statistic, String scenario, double distanceM
         if (fdrMethod == null) {
             fdrMethod = FalseDiscovery.BH;
         }
+        if (Double.isNaN(minCoverage)) {
+            minCoverage = AnalysisGrid.DEFAULT_MIN_COVERAGE;
+        }
+        if (!(minCoverage >= 0) || minCoverage > 1) {
+            throw new UserInputException("--min-coverage (min_coverage) " + minCoverage + " is outside [0, 1]. Fix: give "
+                    + "the share of an analysis cell or zone that must hold data, e.g. --min-coverage 0.5");
+        }
         if (!(fdr > 0) || fdr > MAX_FDR) {
             throw new UserInputException(String.format(Locale.ROOT, "--fdr %s is outside (0, %.2f]. Fix: give e.g. "
                     + "--fdr 0.05", fdr, MAX_FDR));
@@ -146,61 +157,67 @@ public record HotspotOptions(String statistic, String scenario, double distanceM
     /** These options with analysis cell {@code m} [m] (NaN: the default). */
     public HotspotOptions withCellSize(double m) {
         return new HotspotOptions(statistic, scenario, distanceM, weights, fdr, tileSize, replace, districts, reference,
-                m, fdrMethod, minExcessK, minAreaM2);
+                m, fdrMethod, minExcessK, minAreaM2, minCoverage);
     }
 
     /** These options with FDR method {@code f}. */
     public HotspotOptions withFdrMethod(FalseDiscovery f) {
         return new HotspotOptions(statistic, scenario, distanceM, weights, fdr, tileSize, replace, districts, reference,
-                cellSizeM, f, minExcessK, minAreaM2);
+                cellSizeM, f, minExcessK, minAreaM2, minCoverage);
     }
 
     /** These options with Δ₀ = {@code k} [K] and smallest polygon {@code a} [m²]. */
     public HotspotOptions withEffect(double k, double a) {
         return new HotspotOptions(statistic, scenario, distanceM, weights, fdr, tileSize, replace, districts, reference,
-                cellSizeM, fdrMethod, k, a);
+                cellSizeM, fdrMethod, k, a, minCoverage);
     }
 
     /** These options for scenario {@code s} (null or "baseline": the run itself). */
     public HotspotOptions withScenario(String s) {
         return new HotspotOptions(statistic, s, distanceM, weights, fdr, tileSize, replace, districts, reference, cellSizeM,
-                fdrMethod, minExcessK, minAreaM2);
+                fdrMethod, minExcessK, minAreaM2, minCoverage);
     }
 
     /** These options with band distance {@code d} [m] and weights {@code w}. */
     public HotspotOptions withDistance(double d, Weights w) {
         return new HotspotOptions(statistic, scenario, d, w, fdr, tileSize, replace, districts, reference, cellSizeM,
-                fdrMethod, minExcessK, minAreaM2);
+                fdrMethod, minExcessK, minAreaM2, minCoverage);
     }
 
     /** These options with FDR level {@code q}, 0 &lt; q ≤ {@value #MAX_FDR}. */
     public HotspotOptions withFdr(double q) {
         return new HotspotOptions(statistic, scenario, distanceM, weights, q, tileSize, replace, districts, reference, cellSizeM,
-                fdrMethod, minExcessK, minAreaM2);
+                fdrMethod, minExcessK, minAreaM2, minCoverage);
     }
 
     /** These options with tiles of {@code t} × {@code t} cells. */
     public HotspotOptions withTileSize(int t) {
         return new HotspotOptions(statistic, scenario, distanceM, weights, fdr, t, replace, districts, reference, cellSizeM,
-                fdrMethod, minExcessK, minAreaM2);
+                fdrMethod, minExcessK, minAreaM2, minCoverage);
     }
 
     /** These options, overwriting an existing output folder when {@code r}. */
     public HotspotOptions withReplace(boolean r) {
         return new HotspotOptions(statistic, scenario, distanceM, weights, fdr, tileSize, r, districts, reference, cellSizeM,
-                fdrMethod, minExcessK, minAreaM2);
+                fdrMethod, minExcessK, minAreaM2, minCoverage);
     }
 
     /** These options reading districts with {@code l}. */
     public HotspotOptions withDistricts(DistrictCells.Loader l) {
         return new HotspotOptions(statistic, scenario, distanceM, weights, fdr, tileSize, replace, l, reference, cellSizeM,
-                fdrMethod, minExcessK, minAreaM2);
+                fdrMethod, minExcessK, minAreaM2, minCoverage);
     }
 
     /** These options with reference {@code r} for a scenario's own map. */
     public HotspotOptions withReference(Reference r) {
         return new HotspotOptions(statistic, scenario, distanceM, weights, fdr, tileSize, replace, districts, r, cellSizeM,
-                fdrMethod, minExcessK, minAreaM2);
+                fdrMethod, minExcessK, minAreaM2, minCoverage);
+    }
+
+    /** These options with minimum coverage {@code c} in [0, 1] (NaN: the default). */
+    public HotspotOptions withMinCoverage(double c) {
+        return new HotspotOptions(statistic, scenario, distanceM, weights, fdr, tileSize, replace, districts, reference,
+                cellSizeM, fdrMethod, minExcessK, minAreaM2, c);
     }
 
     /** True when the analysis is of the run itself. */

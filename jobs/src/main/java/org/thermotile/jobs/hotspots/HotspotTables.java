@@ -64,6 +64,23 @@ final class HotspotTables {
             .add("added_m2", DataTypes.DoubleType, false)
             .add("net_removed_m2", DataTypes.DoubleType, false);
 
+    /** One row per zone of a zone analysis, in file order ({@link ZoneHotspots}); null where a zone was not tested. */
+    static final StructType ZONES = new StructType()
+            .add("zone_id", DataTypes.StringType, false)
+            .add("feature", DataTypes.IntegerType, false)
+            .add("area_m2", DataTypes.DoubleType, false)
+            .add("covered_fraction", DataTypes.DoubleType, false)
+            .add("included", DataTypes.BooleanType, false)
+            .add("mean_value", DataTypes.DoubleType, true)
+            .add("unit", DataTypes.StringType, false)
+            .add("excess_k", DataTypes.DoubleType, true)
+            .add("z", DataTypes.DoubleType, true)
+            .add("q", DataTypes.DoubleType, true)
+            .add("band", DataTypes.IntegerType, true)
+            .add("label", DataTypes.StringType, false)
+            .add("centroid_x", DataTypes.DoubleType, false)
+            .add("centroid_y", DataTypes.DoubleType, false);
+
     static void write(SparkSession spark, List<Row> rows, StructType schema, Path dir) {
         spark.createDataFrame(rows, schema).coalesce(1).write().mode(SaveMode.ErrorIfExists)
                 .parquet(org.thermotile.jobs.storage.OutputStore.sparkUri(dir));

@@ -72,7 +72,8 @@ public final class Hotspots {
     /** Output file names inside the output folder. */
     static final String ZSCORE = "zscore.tif", BAND = "excess_band.tif", QVALUE = "qvalue.tif",
             EXCESS = "excess_k.tif", GEOJSON = "hotspots.geojson", GEOJSON_WGS84 = "hotspots_wgs84.geojson",
-            POLYGONS = "polygons", DISTRICTS = "districts", CHANGE = "programme_change", SUMMARY = "summary.json";
+            POLYGONS = "polygons", DISTRICTS = "districts", CHANGE = "programme_change", SUMMARY = "summary.json",
+            COVERAGE = "coverage.tif";
 
     /** A checked analysis, ready to run: every input problem is found before any Spark work. */
     public record Prepared(RunFolder folder, RunFolder.Field field, int factor, RasterGrid analysis, DistanceBand band,
@@ -120,28 +121,9 @@ public final class Hotspots {
         RunFolder folder = RunFolder.open(runDir);
         RunFolder.Field field = folder.field(opt);
         RasterGrid g = field.grid();
-        double a = g.pixelWidth(), b = -g.pixelHeight();
-        double sim = Math.max(a, b);
-        double cellM = opt.cellSizeM();
-        int f;
-        if (Double.isNaN(cellM)) {
-            f = (int) Math.max(1, Math.ceil(HotspotOptions.DEFAULT_CELL_SIZE_M / sim - 1e-9));
-        } else {
-            if (cellM < sim * (1 - 1e-9)) {
-                throw new UserInputException(String.format(Locale.ROOT, "--cell-size (cell_size_m) %s m is smaller than "
-                        + "the simulation cell of %s (%s m): an analysis cell must hold whole simulation cells. Fix: give "
-                        + "a whole multiple of %s m, e.g. --cell-size %s", num(cellM), field.source().map(), num(sim),
-                        num(sim), num(sim * Math.max(1, Math.round(HotspotOptions.DEFAULT_CELL_SIZE_M / sim)))));
-            }
-            try {
-                f = AnalysisGrid.factor(cellM, sim);
-            } catch (IllegalArgumentException e) {
-                long k = Math.max(1, Math.round(cellM / sim));
-                throw new UserInputException("--cell-size (cell_size_m) " + num(cellM) + " m: " + e.getMessage()
-                        + " of " + field.source().map() + ". Fix: give a whole multiple, e.g. --cell-size "
-                        + num(k * sim));
-            }
-        }
+        double a = g.pixelWidth();
+        double sim = Math.max(a, -g.pixelHeight());
+        int f = factor(field, opt);
         double cell = f * sim;
         RasterGrid an = new RasterGrid((g.width() + f - 1) / f, (g.height() + f - 1) / f, g.originX(), g.originY(),
                 a * f, g.pixelHeight() * f, g.epsg(), g.crsWkt());
@@ -193,6 +175,36 @@ public final class Hotspots {
             }
         }
         return new Prepared(folder, field, f, an, band, opt, districts, dc);
+    }
+
+    /**
+     * The analysis cell as a whole number f of simulation cells per edge: {@code cell_size_m} checked
+     * against the field's simulation cell, or 40 m rounded up to a multiple of it.
+     */
+    static int factor(RunFolder.Field field, HotspotOptions opt) {
+        RasterGrid g = field.grid();
+        double sim = Math.max(g.pixelWidth(), -g.pixelHeight());
+        double cellM = opt.cellSizeM();
+        int f;
+        if (Double.isNaN(cellM)) {
+            f = (int) Math.max(1, Math.ceil(HotspotOptions.DEFAULT_CELL_SIZE_M / sim - 1e-9));
+        } else {
+            if (cellM < sim * (1 - 1e-9)) {
+                throw new UserInputException(String.format(Locale.ROOT, "--cell-size (cell_size_m) %s m is smaller than "
+                        + "the simulation cell of %s (%s m): an analysis cell must hold whole simulation cells. Fix: give "
+                        + "a whole multiple of %s m, e.g. --cell-size %s", num(cellM), field.source().map(), num(sim),
+                        num(sim), num(sim * Math.max(1, Math.round(HotspotOptions.DEFAULT_CELL_SIZE_M / sim)))));
+            }
+            try {
+                f = AnalysisGrid.factor(cellM, sim);
+            } catch (IllegalArgumentException e) {
+                long k = Math.max(1, Math.round(cellM / sim));
+                throw new UserInputException("--cell-size (cell_size_m) " + num(cellM) + " m: " + e.getMessage()
+                        + " of " + field.source().map() + ". Fix: give a whole multiple, e.g. --cell-size "
+                        + num(k * sim));
+            }
+        }
+        return f;
     }
 
     /** {@link #prepare} then {@link #run(SparkSession, Prepared)}. */
@@ -258,8 +270,17 @@ public final class Hotspots {
         int f = p.factor();
         double cell = an.pixelWidth();
 
-        AnalysisGrid agg = aggregate(jsc, src, grid, f, opt.tileSize());
-        AnalysisGrid refAgg = ref.equals(src) ? agg : aggregate(jsc, ref, grid, f, opt.tileSize());
+        // Coverage rule: analysis cells with less than the minimum share of valid simulation cells
+        // (grid edge, no-data) are left out of Gi*, the global moments and the median.
+        AnalysisGrid raw = aggregate(jsc, src, grid, f, opt.tileSize());
+        AnalysisGrid agg = raw.withMinCoverage(opt.minCoverage());
+        AnalysisGrid refAgg = ref.equals(src) ? agg
+                : aggregate(jsc, ref, grid, f, opt.tileSize()).withMinCoverage(opt.minCoverage());
+        int below = raw.belowCoverage(opt.minCoverage());
+        if (below > 0) {
+            notes.add(String.format(Locale.ROOT, "%d analysis cell(s) with data cover less than %s of their area "
+                    + "(grid edge or no-data) and are left out (--min-coverage)", below, num(opt.minCoverage())));
+        }
         GlobalMoments global = new GlobalMoments();
         for (double v : refAgg.mean()) {
             global.add(v);
@@ -327,7 +348,7 @@ public final class Hotspots {
         }
         List<HotspotPolygons.Hotspot> polys = HotspotPolygons.build(an, sign, CLASS_NODATA, meanF, hr.z(), hr.excessK(),
                 hr.q(), codes, cellDistrict, nd);
-        writeMaps(tmp, an, hr, codes, field, band, opt, global, median, rule);
+        writeMaps(tmp, an, hr, codes, field, band, opt, global, median, rule, agg.coverage());
         List<GeoJsonWriter.Feature> features = new ArrayList<>();
         List<Row> polyRows = new ArrayList<>();
         MathTransform toWgs = GeoJsonWriter.toWgs84(an);
@@ -392,7 +413,7 @@ public final class Hotspots {
 
         // Programmes: the hot area a scenario removes or adds against the run's own hot spots.
         Double removed = null;
-        List<String> outputs = new ArrayList<>(List.of(BAND, EXCESS, QVALUE, ZSCORE, GEOJSON, GEOJSON_WGS84,
+        List<String> outputs = new ArrayList<>(List.of(BAND, EXCESS, QVALUE, ZSCORE, COVERAGE, GEOJSON, GEOJSON_WGS84,
                 POLYGONS + "/", DISTRICTS + "/"));
         List<double[]> change = null;
         if (field.scenario() != null && field.referenceLabel().equals("baseline")) {
@@ -406,7 +427,8 @@ public final class Hotspots {
                         && b.path("fdr_method").asText().equals(opt.fdrMethod().key())
                         && b.path("analysis_cell_m").asDouble() == cell
                         && b.path("min_excess_k").asDouble() == opt.minExcessK()
-                        && b.path("min_area_m2").asDouble() == opt.minAreaM2();
+                        && b.path("min_area_m2").asDouble() == opt.minAreaM2()
+                        && b.path("min_coverage").asDouble(0) == opt.minCoverage();
                 if (same && Files.isRegularFile(baseDir.resolve(BAND))) {
                     removed = b.path("hot_area_m2").asDouble() - hotArea;
                     int[] baseCodes = readCodes(baseDir.resolve(BAND));
@@ -550,7 +572,8 @@ public final class Hotspots {
     }
 
     private static void writeMaps(Path tmp, RasterGrid an, HotAreas.Result hr, int[] codes, RunFolder.Field field,
-            DistanceBand band, HotspotOptions opt, GlobalMoments g, double median, String rule) throws IOException {
+            DistanceBand band, HotspotOptions opt, GlobalMoments g, double median, String rule, double[] coverage)
+            throws IOException {
         Map<String, String> common = new LinkedHashMap<>();
         common.put("STATISTIC", field.statistic());
         common.put("UNIT", ascii(field.unit()));
@@ -572,6 +595,7 @@ public final class Hotspots {
         common.put("FDR", num(opt.fdr()));
         common.put("MIN_EXCESS_K", num(opt.minExcessK()));
         common.put("MIN_AREA_M2", num(opt.minAreaM2()));
+        common.put("MIN_COVERAGE", num(opt.minCoverage()));
         int n = codes.length;
         float[] z = new float[n], q = new float[n], ex = new float[n];
         for (int i = 0; i < n; i++) {
@@ -598,6 +622,12 @@ public final class Hotspots {
                 + " q-values of the Gi* p-values of " + field.statistic() + "; no data -9999");
         writeFloat(tmp.resolve(ZSCORE), an, z, common, "thermotile Gi* z-scores of " + field.statistic() + ", "
                 + num(band.distanceM()) + " m " + band.weights().key() + " band; no data -9999");
+        float[] cov = new float[n];
+        for (int i = 0; i < n; i++) {
+            cov[i] = (float) coverage[i];
+        }
+        writeFloat(tmp.resolve(COVERAGE), an, cov, common, "thermotile coverage of each analysis cell: share of its "
+                + "area holding valid simulation cells [0-1]; cells below MIN_COVERAGE are left out of the analysis");
     }
 
     private static void writeFloat(Path f, RasterGrid an, float[] v, Map<String, String> items, String description)
@@ -636,6 +666,7 @@ public final class Hotspots {
         root.put("fdr", r.fdr());
         root.put("min_excess_k", r.minExcessK());
         root.put("min_area_m2", p.options().minAreaM2());
+        root.put("min_coverage", p.options().minCoverage());
         root.put("city_median", r.referenceK());
         ObjectNode gl = root.putObject("global");
         gl.put("valid_cells", g.count());

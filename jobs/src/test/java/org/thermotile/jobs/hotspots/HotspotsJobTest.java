@@ -311,9 +311,10 @@ class HotspotsJobTest {
         assertEquals(peak256.hotAreaM2(), hot, 1e-9);
         long cells = districts.stream().mapToLong(r -> r.<Long>getAs("cells")).sum();
         assertEquals(peak256.validCells(), cells);
-        // Data area: 150 × 110 cells of 25 m² less the 54 no-data cells.
+        // Data area: 150 × 110 cells of 25 m² less the 54 no-data cells, less the 2 × 2 cells of the last
+        // analysis cell (column 37, row 27: 25 % covered, below the default minimum coverage of 0.5).
         double data = districts.stream().mapToDouble(r -> r.<Double>getAs("area_m2")).sum();
-        assertEquals((150 * 110 - 54) * 25.0, data, 1e-6);
+        assertEquals((150 * 110 - 54 - 4) * 25.0, data, 1e-6);
         assertEquals(SQ_CELLS * ACELL_AREA, districts.get(1).<Double>getAs("hot_area_m2"), 1e-9);
         assertEquals(4.0, districts.get(1).<Double>getAs("hot_mean_excess_k"), 0.3);
     }
@@ -450,7 +451,10 @@ class HotspotsJobTest {
         JsonNode s = new ObjectMapper().readTree(run256.resolve("hotspots/peak/summary.json").toFile());
         assertEquals("peak", s.path("statistic").asText());
         assertEquals(peak256.hotAreaM2(), s.path("hot_area_m2").asDouble(), 1e-9);
-        assertEquals(38 * 28 - 2, s.path("global").path("valid_cells").asLong(), "two analysis cells are all no data");
+        assertEquals(38 * 28 - 3, s.path("global").path("valid_cells").asLong(),
+                "two analysis cells are all no data, the corner cell (25 % covered) is left out");
+        assertEquals(0.5, s.path("min_coverage").asDouble(), 0.0);
+        assertTrue(s.path("notes").toString().contains("1 analysis cell(s) with data cover less than 0.5"), s.toString());
         assertEquals("own", s.path("reference").asText());
         assertEquals("given", s.path("distance_rule").asText());
         assertEquals(20.0, s.path("analysis_cell_m").asDouble(), 0.0);
