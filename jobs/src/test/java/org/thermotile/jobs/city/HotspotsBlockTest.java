@@ -53,4 +53,30 @@ class HotspotsBlockTest {
         String e = error("{min_excess_k: 0}");
         assertTrue(e.contains("hotspots.min_excess_k") && e.contains("Fix"), e);
     }
+
+    @Test
+    void readsTheZoneAndCoverageKeys() throws IOException {
+        Files.writeString(dir.resolve("blocks.geojson"), "{}");          // read by the zone analysis, not here
+        HotspotsBlock b = block("{min_coverage: 0.3, zones: blocks.geojson, zone_id: block_ref}");
+        assertEquals(0.3, b.options("peak", 256).minCoverage());
+        assertEquals(dir.resolve("blocks.geojson").toAbsolutePath().normalize(), b.zoneOptions().file());
+        assertEquals("block_ref", b.zoneOptions().idProperty());
+        assertEquals("hotspots.zones", b.zoneOptions().option());
+        HotspotsBlock plain = block("{fdr: 0.05}");
+        assertEquals(0.5, plain.options("peak", 256).minCoverage(), "the default minimum coverage");
+        assertEquals(null, plain.zoneOptions());
+    }
+
+    @Test
+    void badZoneAndCoverageValuesNameTheKeyAndTheFix() throws IOException {
+        String c = error("{min_coverage: 1.5}");
+        assertTrue(c.contains("hotspots.min_coverage: 1.5 must be a share from 0 to 1") && c.contains("Fix"), c);
+        String z = error("{zones: nowhere.geojson}");
+        assertTrue(z.contains("hotspots.zones:") && z.contains("nowhere.geojson not found") && z.contains("Fix"), z);
+        String id = error("{zone_id: ref}");
+        assertTrue(id.contains("hotspots.zone_id without zones") && id.contains("Fix"), id);
+        Files.writeString(dir.resolve("blocks.geojson"), "{}");
+        String w = error("{zones: blocks.geojson, weights: inverse_distance}");
+        assertTrue(w.contains("zones use binary weights"), w);
+    }
 }

@@ -46,6 +46,15 @@ class HotspotsCommandTest {
         StringWriter err3 = new StringWriter();
         assertEquals(2, cli(err3).execute("hotspots", run.toString(), "--statistic", "nightmin"));
         assertTrue(err3.toString().contains("did you mean 'night_min'?"), err3.toString());
+        StringWriter err6 = new StringWriter();
+        assertEquals(2, cli(err6).execute("hotspots", run.toString(), "--zone-id", "ref"));
+        assertTrue(err6.toString().contains("--zone-id ref without --zones"), err6.toString());
+        StringWriter err7 = new StringWriter();
+        assertEquals(2, cli(err7).execute("hotspots", run.toString(), "--zones", dir.resolve("none.geojson").toString()));
+        assertTrue(err7.toString().contains("none.geojson: zones file not found. Fix: check --zones"), err7.toString());
+        StringWriter err8 = new StringWriter();
+        assertEquals(2, cli(err8).execute("hotspots", run.toString(), "--min-coverage", "2"));
+        assertTrue(err8.toString().contains("--min-coverage (min_coverage) 2.0 is outside [0, 1]"), err8.toString());
     }
 
     @Test
