@@ -192,4 +192,20 @@ class ZoneHotspotsTest {
             assertEquals(List.of(), s.toList(), "nothing partial left");
         }
     }
+
+    /** The run report lists the hot zones, largest first. */
+    @Test
+    void theReportListsTheHotZonesLargestFirst() throws IOException {
+        Path page = org.thermotile.jobs.report.RunReport.write(run);
+        String html = Files.readString(page);
+        int section = html.indexOf("Hot zones");
+        assertTrue(section > 0, "a Hot zones section");
+        String rest = html.substring(section);
+        assertTrue(rest.contains("blocks (peak): 8 hot of 99 zones"), rest.substring(0, Math.min(600, rest.length())));
+        int wide = rest.indexOf("<td>H-wide</td>");
+        assertTrue(wide > 0, "H-wide listed");
+        for (String id : PLANTED) {
+            assertTrue(rest.indexOf("<td>" + id + "</td>") >= wide, id + " after the largest zone");
+        }
+    }
 }
