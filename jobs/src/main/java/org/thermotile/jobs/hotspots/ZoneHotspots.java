@@ -135,17 +135,19 @@ public final class ZoneHotspots {
                     + "give more zones (blocks, parcels, districts)");
         }
         if (!Double.isNaN(opt.distanceM())) {
-            double span = 0;
+            double minX = Double.POSITIVE_INFINITY, maxX = Double.NEGATIVE_INFINITY, minY = minX, maxY = maxX;
             for (ZoneFile.Zone a : zf.zones()) {
-                for (ZoneFile.Zone b : zf.zones()) {
-                    span = Math.max(span, Math.hypot(a.centroidX() - b.centroidX(), a.centroidY() - b.centroidY()));
-                }
+                minX = Math.min(minX, a.centroidX());
+                maxX = Math.max(maxX, a.centroidX());
+                minY = Math.min(minY, a.centroidY());
+                maxY = Math.max(maxY, a.centroidY());
             }
+            double span = Math.hypot(maxX - minX, maxY - minY);
             if (opt.distanceM() >= span) {
                 throw new UserInputException(String.format(Locale.ROOT, "--distance %s m reaches every zone of %s "
-                        + "(the farthest centroids are %.1f m apart): each zone would be compared with the whole set, "
-                        + "which the global mean already is. Fix: give less than %.0f m, or leave it out for the peak "
-                        + "of Moran's I", Hotspots.num(opt.distanceM()), z.file(), span, span));
+                        + "(the centroids' extent has a diagonal of %.1f m): each zone would be compared with the whole "
+                        + "set, which the global mean already is. Fix: give less than %.0f m, or leave it out for the "
+                        + "peak of Moran's I", Hotspots.num(opt.distanceM()), z.file(), span, span));
             }
         }
         String name = z.file().getFileName().toString();
@@ -300,7 +302,12 @@ public final class ZoneHotspots {
                     + "or a lower --min-coverage");
         }
 
-        Analysis an = analyse(values, cx, cy, global, median, opt);
+        Analysis an;
+        try {
+            an = analyse(values, cx, cy, global, median, opt);
+        } catch (UserInputException e) {
+            throw new UserInputException(p.zones().file() + ": " + e.getMessage(), e);
+        }
         double d = an.band().distanceM();
         double[] z = an.z(), q = an.q();
         int tested = an.tested();

@@ -214,27 +214,45 @@ public final class CentroidBand {
     /**
      * The largest nearest-neighbour distance among the points with data [m]: the smallest band in
      * which every zone with data has a neighbour (common practice for the first distance of a scan,
-     * from memory). O(n²); 0 for fewer than 2 points.
+     * from memory). A sweep over the points sorted by x that stops once |Δx| exceeds the best
+     * distance found (exact; about O(n √n) for points spread over an area); 0 for fewer than 2 points.
      */
     public static double largestNearestNeighbour(double[] x, double[] y, double[] values) {
-        double worst = 0;
-        int valid = 0;
-        for (int i = 0; i < x.length; i++) {
-            if (Double.isNaN(values[i])) {
-                continue;
-            }
-            valid++;
-            double best = Double.POSITIVE_INFINITY;
-            for (int j = 0; j < x.length; j++) {
-                if (j != i && !Double.isNaN(values[j])) {
-                    best = Math.min(best, Math.hypot(x[j] - x[i], y[j] - y[i]));
-                }
-            }
-            if (Double.isFinite(best)) {
-                worst = Math.max(worst, best);
+        int m = 0;
+        for (double v : values) {
+            m += Double.isNaN(v) ? 0 : 1;
+        }
+        if (m < 2) {
+            return 0;
+        }
+        Integer[] boxed = new Integer[m];
+        int k = 0;
+        for (int i = 0; i < values.length; i++) {
+            if (!Double.isNaN(values[i])) {
+                boxed[k++] = i;
             }
         }
-        return valid < 2 ? 0 : worst;
+        Arrays.sort(boxed, (a, b) -> {
+            int c = Double.compare(x[a], x[b]);
+            return c != 0 ? c : Integer.compare(a, b);
+        });
+        double worst = 0;
+        for (int p = 0; p < m; p++) {
+            int i = boxed[p];
+            double best = Double.POSITIVE_INFINITY;
+            for (int dir = -1; dir <= 1; dir += 2) {
+                for (int q = p + dir; q >= 0 && q < m; q += dir) {
+                    int j = boxed[q];
+                    double dx = x[j] - x[i];
+                    if (Math.abs(dx) > best) {
+                        break;
+                    }
+                    best = Math.min(best, Math.hypot(dx, y[j] - y[i]));
+                }
+            }
+            worst = Math.max(worst, best);
+        }
+        return worst;
     }
 
     /**

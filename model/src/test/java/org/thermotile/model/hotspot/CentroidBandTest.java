@@ -134,4 +134,33 @@ class CentroidBandTest {
         }
         assertTrue(Double.isNaN(b.zScores(v, g)[4]), "an isolated zone is not tested");
     }
+
+    /** The sweep's largest nearest-neighbour distance = the O(n²) minimum over pairs, with zones without data skipped. */
+    @Test
+    void largestNearestNeighbourMatchesThePairwiseMinimum() {
+        SplittableRandom rnd = new SplittableRandom(44);
+        for (int trial = 0; trial < 5; trial++) {
+            int n = 50 + 70 * trial;
+            double[] x = new double[n], y = new double[n], v = new double[n];
+            for (int i = 0; i < n; i++) {
+                x[i] = trial == 4 ? Math.floor(10 * rnd.nextDouble()) * 40 : 800 * rnd.nextDouble();   // ties in x
+                y[i] = 600 * rnd.nextDouble();
+                v[i] = rnd.nextDouble() < 0.1 ? Double.NaN : 1;
+            }
+            double worst = 0;
+            for (int i = 0; i < n; i++) {
+                if (Double.isNaN(v[i])) {
+                    continue;
+                }
+                double best = Double.POSITIVE_INFINITY;
+                for (int j = 0; j < n; j++) {
+                    if (j != i && !Double.isNaN(v[j])) {
+                        best = Math.min(best, Math.hypot(x[i] - x[j], y[i] - y[j]));
+                    }
+                }
+                worst = Math.max(worst, best);
+            }
+            assertEquals(worst, CentroidBand.largestNearestNeighbour(x, y, v), 0.0, "trial " + trial);
+        }
+    }
 }
