@@ -111,6 +111,12 @@ public final class HotspotsCommand implements Callable<Integer> {
 
     @Override
     public Integer call() {
+        try (org.thermotile.jobs.storage.RunLock lock = FolderLock.hold(runDir, "hotspots")) {
+            return work();
+        }
+    }
+
+    private Integer work() {
         HotspotOptions opt = options();
         Hotspots.Prepared p = Hotspots.prepare(runDir, opt);     // every check before Spark starts
         SparkSession spark = SparkSessions.get(master, threads);
