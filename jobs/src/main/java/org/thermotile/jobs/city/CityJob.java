@@ -156,6 +156,7 @@ public final class CityJob {
     /** Records the signal a stop comes from, for its message ("SIGINT", "SIGTERM"). */
     public static void stoppedBy(String signal) {
         RunStop.signal = signal;
+        RunStop.stopping = true;
     }
 
     /** The command that resumes this run, as printed when it is stopped. */
