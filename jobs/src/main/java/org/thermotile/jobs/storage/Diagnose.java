@@ -40,7 +40,7 @@ public final class Diagnose {
             return "the folder " + f + " is gone: check that its disk is mounted, or choose another --out";
         }
         if (existing != null && !Files.isWritable(existing)) {
-            return "make " + existing + " writable (chmod u+w) or choose another --out";
+            return "make " + existing + " writable (its permissions, or remount its disk read-write) or choose another --out";
         }
         try {
             long free = existing == null ? -1 : Files.getFileStore(existing).getUsableSpace();
