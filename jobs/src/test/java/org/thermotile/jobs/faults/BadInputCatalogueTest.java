@@ -276,8 +276,9 @@ class BadInputCatalogueTest {
                         "run.yaml line 4, column 28", "Do not use \\t(TAB) for indentation"),
                 fails("duplicate key", runText(t -> t + "name: again\n"), "run.yaml line 17, column 1",
                         "key given twice (first on line 1)"),
-                works("anchors and aliases", runText(t -> t.replace("start: 2026-07-14", "start: &day 2026-07-14")
-                        .replace("end: 2026-07-14", "end: *day"))),
+                fails("anchors and aliases", runText(t -> t.replace("start: 2026-07-14", "start: &day 2026-07-14")
+                        .replace("end: 2026-07-14", "end: *day")), "run.yaml line 10, column 8",
+                        "period.end: the YAML alias *day is not supported"),
                 fails("huge threshold 1e308", runText(t -> t.replace("threshold_c: 45", "threshold_c: 1e308")),
                         "run.yaml line 14, column 3", "threshold_c", "outside the plausible range"),
                 fails("spin-up of 10^6 days", runText(t -> t.replace("spin_up_days: 1", "spin_up_days: 1000000")),

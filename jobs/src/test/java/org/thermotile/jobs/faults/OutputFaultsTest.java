@@ -37,7 +37,8 @@ import picocli.CommandLine;
  * of memory each give one line naming the path and the fix (exit 2), leave nothing half-written
  * and leave the user's other files alone. The full and read-only disks are real: small tmpfs
  * mounts, made when the tests run as root (else those tests are skipped); the out-of-memory case
- * is fault-injected (Spark's own failure text, thrown where the run would see it).
+ * is fault-injected (Spark's own failure text, thrown where the run would see it); the unreadable
+ * input is real (as root, in a child JVM without the capabilities that bypass permissions).
  */
 class OutputFaultsTest {
     @TempDir
@@ -149,22 +150,50 @@ class OutputFaultsTest {
         assertNothingLeft(parent);
     }
 
+    /**
+     * A land cover without read permission. As root every file is readable, so there the command
+     * runs in a child JVM without the capabilities that bypass permissions ({@code setpriv}).
+     */
     @Test
     void inputWithoutReadPermission() throws Exception {
         Path in = dir.resolve("locked");
         Path rf = BadInputCatalogueTest.plain(in);
         Path lc = in.resolve("landcover.tif");
+        Path out = in.resolve("out");
         Files.setPosixFilePermissions(lc, PosixFilePermissions.fromString("---------"));
         try {
-            assumeTrue(!Files.isReadable(lc), "running as root: every file is readable, so this case cannot be made");
-            StringWriter err = new StringWriter();
-            CommandLine cl = new CommandLine(new Main());
-            cl.setErr(new PrintWriter(err));
-            int status = Main.executeWith(cl, "run", rf.toString(), "--out", in.resolve("out").toString(), "--quiet");
-            assertEquals(Main.BAD_INPUT, status, err.toString());
-            assertTrue(err.toString().contains(lc + ": permission denied") && err.toString().contains("chmod u+r"),
-                    err.toString());
-            assertFalse(Files.exists(in.resolve("out")));
+            int status;
+            String err;
+            if (!Files.isReadable(lc)) {
+                StringWriter w = new StringWriter();
+                CommandLine cl = new CommandLine(new Main());
+                cl.setErr(new PrintWriter(w));
+                status = Main.executeWith(cl, "run", rf.toString(), "--out", out.toString(), "--quiet");
+                err = w.toString();
+            } else {
+                List<String> cmd = new java.util.ArrayList<>(List.of("setpriv",
+                        "--inh-caps=-dac_override,-dac_read_search", "--bounding-set=-dac_override,-dac_read_search",
+                        Path.of(System.getProperty("java.home"), "bin", "java").toString(), "-Xmx256m"));
+                java.lang.management.ManagementFactory.getRuntimeMXBean().getInputArguments().stream()
+                        .filter(a -> a.startsWith("--add-opens") || a.startsWith("-XX:+IgnoreUnrecognizedVMOptions"))
+                        .forEach(cmd::add);
+                cmd.addAll(List.of("-cp", System.getProperty("surefire.test.class.path",
+                        System.getProperty("java.class.path")), Main.class.getName(), "run", rf.toString(),
+                        "--out", out.toString(), "--quiet"));
+                Process p;
+                try {
+                    p = new ProcessBuilder(cmd).redirectErrorStream(true).start();
+                } catch (java.io.IOException e) {
+                    assumeTrue(false, "setpriv is not installed: as root this case cannot be made");
+                    return;
+                }
+                err = new String(p.getInputStream().readAllBytes());
+                status = p.waitFor();
+            }
+            assertEquals(Main.BAD_INPUT, status, err);
+            assertTrue(err.contains(lc + ": permission denied") && err.contains("Fix: chmod u+r " + lc), err);
+            assertEquals(1, err.strip().lines().count(), err);
+            assertFalse(Files.exists(out));
         } finally {
             Files.setPosixFilePermissions(lc, PosixFilePermissions.fromString("rw-r--r--"));
         }
