@@ -27,7 +27,7 @@ import org.thermotile.jobs.storage.RunLock;
 import picocli.CommandLine;
 
 /**
- * One command at a time per output folder (issue 18, item 1): a second run, resume, compare,
+ * One command at a time per output folder: a second run, resume, compare,
  * hot spots, report or observe on a folder that a run holds exits 2 naming the running one, and
  * the first run goes on undisturbed to the same bytes as a run alone; a stale lock is taken over
  * with a warning; the lock goes with the run, whether it succeeds or fails.

@@ -19,7 +19,7 @@ import org.thermotile.jobs.cli.Main;
 
 /**
  * A real {@code thermotile run} in a child JVM, stopped by SIGINT and by SIGTERM once it reports
- * progress (issue 18, item 2): the exit status is 128 + the signal's number, the message names the
+ * progress: the exit status is 128 + the signal's number, the message names the
  * signal, what was removed and kept and the exact resume command, nothing is published, the
  * staging folder and the lock are gone and an earlier run in the folder is untouched.
  */

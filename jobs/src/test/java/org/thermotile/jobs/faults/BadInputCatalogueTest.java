@@ -33,7 +33,7 @@ import org.thermotile.jobs.testing.Gdal;
 import picocli.CommandLine;
 
 /**
- * The bad-input catalogue (issue 18, item 4): inputs of unusual storage or content, tried as a
+ * The bad-input catalogue: inputs of unusual storage or content, tried as a
  * hostile user would, one row each. A row that must be refused asserts exit status 2, a message
  * naming the file and the place (line, column, key or cell) and that no output folder (nor a
  * staging folder or lock) is left. A row that should work is run and its maps and tables compared

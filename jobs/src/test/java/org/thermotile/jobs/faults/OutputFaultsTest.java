@@ -32,7 +32,7 @@ import org.thermotile.jobs.testing.Gdal;
 import picocli.CommandLine;
 
 /**
- * Faults of the output location and of the machine (issue 18, item 3): a full disk, a read-only
+ * Faults of the output location and of the machine: a full disk, a read-only
  * disk, an output folder that vanishes mid-run, an input without read permission and a task out
  * of memory each give one line naming the path and the fix (exit 2), leave nothing half-written
  * and leave the user's other files alone. The full and read-only disks are real: small tmpfs
