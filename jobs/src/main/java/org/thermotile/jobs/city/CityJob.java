@@ -15,10 +15,12 @@ import org.apache.spark.broadcast.Broadcast;
 import org.apache.spark.sql.SparkSession;
 import org.apache.spark.storage.StorageLevel;
 import org.thermotile.jobs.errors.UserInputException;
+import org.thermotile.jobs.storage.Diagnose;
 import org.thermotile.jobs.storage.Folders;
 import org.thermotile.jobs.storage.InputStaging;
 import org.thermotile.jobs.storage.OutputStore;
 import org.thermotile.jobs.storage.RunLayout;
+import org.thermotile.jobs.storage.RunLock;
 import org.thermotile.model.stats.GroupHourStats;
 
 /**
@@ -43,9 +45,16 @@ public final class CityJob {
      *                      {@code hdfs://namenode:8020/runs/x} (see {@link OutputStore})
      * @param beforePublish called with the finished (still temporary) run folder just before it is
      *                      published, e.g. to add the report; null for nothing
+     * @param runFile       the run file as the user gave it, for the lock file and the resume command
+     *                      printed when the run is stopped; null when not known
      */
     public record Options(Path outDir, String master, boolean replace, boolean quiet, int threads, boolean resume,
-            java.util.function.Consumer<Path> beforePublish) {
+            java.util.function.Consumer<Path> beforePublish, String runFile) {
+        public Options(Path outDir, String master, boolean replace, boolean quiet, int threads, boolean resume,
+                java.util.function.Consumer<Path> beforePublish) {
+            this(outDir, master, replace, quiet, threads, resume, beforePublish, null);
+        }
+
         public Options(Path outDir, String master, boolean replace, boolean quiet, int threads, boolean resume) {
             this(outDir, master, replace, quiet, threads, resume, null);
         }
@@ -78,38 +87,104 @@ public final class CityJob {
             return runToHadoop(session, periods, opt, console, remote, t0);
         }
         Path out = outputFolder(opt.outDir());
-        if (Files.exists(out) && !opt.replace() && !opt.resume()) {
-            throw new UserInputException(out + " already exists. Fix: choose another --out folder, "
-                    + "add --replace to overwrite it, or --resume to keep its complete scenario partitions");
-        }
-        if (Files.exists(out) && opt.replace() && !Files.isRegularFile(out.resolve("manifest.json"))) {
-            // --replace deletes the folder: never one that is not a run of ours (the user's own files).
-            throw new UserInputException(out + " is not a thermotile run folder (no manifest.json), so --replace "
-                    + "will not delete it. Fix: choose another --out folder, or empty or remove it yourself");
-        }
         Path parent = out.getParent();
         Path tmp = parent.resolve("." + out.getFileName() + ".partial");
+        // The lock first: a second command on this folder is refused before it looks at, or stages, anything.
+        RunLock lock = RunLock.acquire(out, "run " + shellWord(opt.runFile() == null ? "RUNFILE" : opt.runFile())
+                + " --out " + shellWord(out.toString()), System.err);
+        RunStop stop = null;
         try {
-            Files.createDirectories(parent);
-            deleteTree(tmp);
-            Files.createDirectories(tmp);
-            Summary s = inSession(session, opt, spark -> executeAll(spark, periods, tmp, out, opt, console, t0));
-            if (opt.beforePublish() != null) {
-                opt.beforePublish().accept(tmp);
+            if (Files.exists(out) && !opt.replace() && !opt.resume()) {
+                throw new UserInputException(out + " already exists. Fix: choose another --out folder, "
+                        + "add --replace to overwrite it, or --resume to keep its complete scenario partitions");
             }
-            if (Files.exists(out)) {
-                deleteTree(out);
+            if (Files.exists(out) && opt.replace() && !Files.isRegularFile(out.resolve("manifest.json"))) {
+                // --replace deletes the folder: never one that is not a run of ours (the user's own files).
+                throw new UserInputException(out + " is not a thermotile run folder (no manifest.json), so --replace "
+                        + "will not delete it. Fix: choose another --out folder, or empty or remove it yourself");
             }
-            Files.move(tmp, out, StandardCopyOption.ATOMIC_MOVE);
-            return new Summary(out, s.cells(), s.cellHours(), s.wallSeconds(), s.cellHoursPerSecond(),
-                    s.maxClosureResidual(), s.maps());
-        } catch (IOException e) {
-            deleteQuietly(tmp);
-            throw new UncheckedIOException(e);
-        } catch (RuntimeException | Error e) {
-            deleteQuietly(tmp);
-            throw e;
+            stop = RunStop.register(out, tmp, null, lock, resumeCommand(opt, out.toString()), System.err);
+            RunStop st = stop;
+            try {
+                Files.createDirectories(parent);
+                deleteTree(tmp);
+                Files.createDirectories(tmp);
+                Summary s = inSession(session, opt, spark -> {
+                    st.attach(spark);
+                    return executeAll(spark, periods, tmp, out, opt, console, t0);
+                });
+                if (opt.beforePublish() != null) {
+                    opt.beforePublish().accept(tmp);
+                }
+                if (Files.exists(out)) {
+                    deleteTree(out);
+                }
+                Files.move(tmp, out, StandardCopyOption.ATOMIC_MOVE);
+                return new Summary(out, s.cells(), s.cellHours(), s.wallSeconds(), s.cellHoursPerSecond(),
+                        s.maxClosureResidual(), s.maps());
+            } catch (IOException e) {
+                deleteQuietly(tmp);
+                UserInputException disk = Diagnose.ofOutput(e, out);
+                throw disk != null ? disk : new UncheckedIOException(e);
+            } catch (OutOfMemoryError e) {
+                deleteQuietly(tmp);
+                throw outOfMemory(e, out);
+            } catch (RuntimeException | Error e) {
+                deleteQuietly(tmp);
+                if (isOutOfMemory(e)) {
+                    throw outOfMemory(e, out);
+                }
+                UserInputException disk = e instanceof UserInputException ? null : Diagnose.ofOutput(e, out);
+                if (disk != null) {
+                    throw disk;
+                }
+                throw e;
+            }
+        } finally {
+            if (stop != null) {
+                stop.done();
+            }
+            lock.release();
         }
+    }
+
+    /** True while the run is being stopped by a signal (its failure then is the stop, not an error). */
+    public static boolean isStopping() {
+        return RunStop.stopping;
+    }
+
+    /** Records the signal a stop comes from, for its message ("SIGINT", "SIGTERM"). */
+    public static void stoppedBy(String signal) {
+        RunStop.signal = signal;
+        RunStop.stopping = true;
+    }
+
+    /** The command that resumes this run, as printed when it is stopped. */
+    static String resumeCommand(Options opt, String out) {
+        return "thermotile run " + shellWord(opt.runFile() == null ? "RUNFILE" : opt.runFile()) + " --out "
+                + shellWord(out) + " --resume";
+    }
+
+    /** {@code w} quoted for a POSIX shell when it holds anything but plain characters. */
+    static String shellWord(String w) {
+        return w.matches("[A-Za-z0-9_./:=@%+,-]+") ? w : "'" + w.replace("'", "'\\''") + "'";
+    }
+
+    /** Whether {@code e} or a cause of it is the JVM running out of heap (a task's, reported through Spark). */
+    static boolean isOutOfMemory(Throwable e) {
+        for (Throwable t = e; t != null; t = t.getCause() == t ? null : t.getCause()) {
+            if (t instanceof OutOfMemoryError || String.valueOf(t.getMessage()).contains("java.lang.OutOfMemoryError")) {
+                return true;
+            }
+        }
+        return false;
+    }
+
+    static UserInputException outOfMemory(Throwable e, Path out) {
+        return new UserInputException("the run ran out of memory (java.lang.OutOfMemoryError in a task) while writing "
+                + out + "; nothing was published and the staging folder was removed. Fix: give the JVM more heap "
+                + "(THERMOTILE_JAVA_OPTS=-Xmx8g, or spark.executor.memory on a cluster), lower tiling.tile_size, or "
+                + "drop outputs.hourly_days", e);
     }
 
     /** Work on a Spark session. */
@@ -153,12 +228,18 @@ public final class CityJob {
         // Unique per run: tasks cache the files they fetch from it by location.
         String partial = target.substring(0, target.lastIndexOf('/') + 1) + "." + name + "."
                 + stagingRoot.getFileName().toString().replace("thermotile-out-", "") + ".partial";
+        // No lock file on a Hadoop file system (see README, Faults and stops); the stop hook still cleans up.
+        RunStop stop = RunStop.register(null, stagingRoot, partial, RunLock.none(),
+                resumeCommand(opt, target).replace(" --resume", " --replace"), System.err);
         try {
             Path staging = Files.createDirectories(stagingRoot.resolve(name));
             OutputStore.delete(partial);
             OutputStore.mirror(staging, partial);
             Path none = stagingRoot.resolve("no-older-run");
-            Summary s = inSession(session, opt, spark -> executeAll(spark, periods, staging, none, opt, console, t0));
+            Summary s = inSession(session, opt, spark -> {
+                stop.attach(spark);
+                return executeAll(spark, periods, staging, none, opt, console, t0);
+            });
             if (opt.beforePublish() != null) {
                 opt.beforePublish().accept(staging);
             }
@@ -178,6 +259,7 @@ public final class CityJob {
         } finally {
             OutputStore.forget(stagingRoot.resolve(name));
             deleteQuietly(stagingRoot);
+            stop.done();
         }
     }
 

@@ -19,6 +19,12 @@ final class CompareCommand implements Callable<Integer> {
 
     @Override
     public Integer call() throws Exception {
+        try (org.thermotile.jobs.storage.RunLock lock = FolderLock.hold(runDir, "compare")) {
+            return work();
+        }
+    }
+
+    private Integer work() throws Exception {
         Path cmp = runDir.resolve("comparison");
         java.util.List<String> periods = org.thermotile.jobs.storage.RunLayout.periodsOf(runDir);
         try (SparkSession spark = SparkSessions.get(null, 0)) {

@@ -138,6 +138,12 @@ public final class HotspotsCommand implements Callable<Integer> {
 
     @Override
     public Integer call() {
+        try (org.thermotile.jobs.storage.RunLock lock = FolderLock.hold(runDir, "hotspots")) {
+            return work();
+        }
+    }
+
+    private Integer work() {
         HotspotOptions opt = options();
         ZoneHotspots.ZoneOptions zo = zoneOptions();
         if (zo != null) {

@@ -16,7 +16,11 @@ import picocli.CommandLine.Command;
                 CommandLine.HelpCommand.class},
         exitCodeListHeading = "%nExit codes:%n",
         exitCodeList = {"0:done", "1:the run failed (see the message)",
-                "2:bad input or usage (the message names the file, place and fix)"})
+                "2:bad input or usage, the output folder in use by another command, a full, read-only or "
+                        + "vanished output disk, an unreadable input, out of memory (the message names the "
+                        + "file, place and fix)",
+                "130:stopped by SIGINT (Ctrl-C); nothing published, see the message for what was kept",
+                "143:stopped by SIGTERM; as 130"})
 public final class Main {
     /** Exit status for bad input or usage. */
     public static final int BAD_INPUT = 2;
@@ -28,7 +32,33 @@ public final class Main {
         // Apache SIS warns once per JVM that its optional EPSG data folder is not configured;
         // thermotile does not use it (UTM zones are built in), so the warning is noise here.
         SIS_LOG.setLevel(java.util.logging.Level.SEVERE);
+        onStopSignals();
         System.exit(execute(args));
+    }
+
+    /** Exit status of a run stopped by SIGINT (128 + 2, the shells' convention). */
+    public static final int STOPPED_INT = 130;
+
+    /** Exit status of a run stopped by SIGTERM (128 + 15). */
+    public static final int STOPPED_TERM = 143;
+
+    /**
+     * SIGINT and SIGTERM exit through {@link System#exit} with 128 + the signal's number, as the
+     * JVM itself would, after noting which signal it was: the shutdown hook of a running job
+     * ({@code CityJob}) then cancels it, cleans up and names the signal.
+     */
+    @SuppressWarnings("removal")
+    private static void onStopSignals() {
+        for (String name : new String[] {"INT", "TERM"}) {
+            try {
+                sun.misc.Signal.handle(new sun.misc.Signal(name), sig -> {
+                    org.thermotile.jobs.city.CityJob.stoppedBy("SIG" + sig.getName());
+                    new Thread(() -> System.exit(128 + sig.getNumber()), "thermotile-exit").start();
+                });
+            } catch (IllegalArgumentException | UnsupportedOperationException | LinkageError e) {
+                // the platform does not offer this signal (or the JVM was started with -Xrs): default handling
+            }
+        }
     }
 
     /** Runs the command line and returns the exit status (for tests). */
@@ -51,6 +81,9 @@ public final class Main {
     private static void installHandler(CommandLine cl) {
         cl.setExecutionExceptionHandler((ex, cmd, parsed) -> {
             PrintWriter err = cmd.getErr();
+            if (org.thermotile.jobs.city.CityJob.isStopping()) {
+                return 1;              // a stop: the stop handler reports it and the JVM exits with 130 or 143
+            }
             if (isUserError(ex)) {
                 err.println("thermotile " + cmd.getCommandName() + ": " + ex.getMessage());
                 err.flush();

@@ -38,6 +38,12 @@ final class ObserveCommand implements Callable<Integer> {
 
     @Override
     public Integer call() throws Exception {
+        try (org.thermotile.jobs.storage.RunLock lock = FolderLock.hold(runDir, "observe")) {
+            return work();
+        }
+    }
+
+    private Integer work() throws Exception {
         ObservationSet set = ObservationSet.read(observations);
         java.util.List<String> keys = null;
         org.thermotile.jobs.city.PreparedRun prepared = null;

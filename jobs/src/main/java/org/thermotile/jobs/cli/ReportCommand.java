@@ -24,6 +24,12 @@ final class ReportCommand implements Callable<Integer> {
 
     @Override
     public Integer call() {
+        try (org.thermotile.jobs.storage.RunLock lock = FolderLock.hold(runDir, "report")) {
+            return work();
+        }
+    }
+
+    private Integer work() {
         RunReport.Result r = RunReport.build(runDir);
         PrintWriter out = spec.commandLine().getOut();
         out.println("report: " + r.html());

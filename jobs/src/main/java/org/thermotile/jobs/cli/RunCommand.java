@@ -52,12 +52,17 @@ final class RunCommand implements Callable<Integer> {
     public Integer call() {
         RunFile run = RunFileReader.read(runFile);
         Path dir = out != null ? out : Path.of("runs", run.name());
-        execute(run, dir, master, threads, replace, quiet, confirmSweep, resume, System.out);
+        execute(run, dir, master, threads, replace, quiet, confirmSweep, resume, System.out, runFile.toString());
         return 0;
     }
 
     static CityJob.Summary execute(RunFile run, Path dir, String master, int threads, boolean replace,
             boolean quiet, boolean confirmSweep, boolean resume, PrintStream console) {
+        return execute(run, dir, master, threads, replace, quiet, confirmSweep, resume, console, null);
+    }
+
+    static CityJob.Summary execute(RunFile run, Path dir, String master, int threads, boolean replace,
+            boolean quiet, boolean confirmSweep, boolean resume, PrintStream console, String runFileName) {
         List<PreparedRun> periods = RunPreparer.prepareAll(run, confirmSweep);
         PreparedRun p = periods.get(0);
         if (!quiet) {
@@ -78,7 +83,7 @@ final class RunCommand implements Callable<Integer> {
             }
         };
         CityJob.Summary s = CityJob.run(null, periods,
-                new CityJob.Options(dir, master, replace, quiet, threads, resume, report), console);
+                new CityJob.Options(dir, master, replace, quiet, threads, resume, report, runFileName), console);
         String where = CityJob.remoteOutput(s.outDir()) != null ? CityJob.remoteOutput(s.outDir()) : s.outDir().toString();
         console.printf(Locale.ROOT, "done: %d cells, %.3g cell-hours in %.1f s (%.3g cell-hours/s), "
                         + "largest closure residual %.1e%n", s.cells(), (double) s.cellHours(), s.wallSeconds(),

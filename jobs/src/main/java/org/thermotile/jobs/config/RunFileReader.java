@@ -815,15 +815,15 @@ public final class RunFileReader {
     }
 
     /**
-     * A temperature in °C within a plausibility guard {@code [lo, hi]}; values above 200 are
-     * flagged as probably kelvin.
+     * A temperature in °C within a plausibility guard {@code [lo, hi]}; values from 200 to 400
+     * (surface temperatures in kelvin) are flagged as probably kelvin.
      */
     private static Double celsius(Section s, String key, boolean required, String fix, double lo, double hi) {
         Double t = s.number(key, required, fix);
         if (t == null) {
             return null;
         }
-        if (t > 200) {
+        if (t > 200 && t <= 400) {
             s.doc.at(s.child(key), t + " looks like kelvin; give °C (K − 273.15)");
             return null;
         }

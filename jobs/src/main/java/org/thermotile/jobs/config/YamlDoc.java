@@ -67,6 +67,12 @@ final class YamlDoc {
         JsonLocation loc = p.currentTokenLocation();
         lineCol.putIfAbsent(path, new int[] {loc.getLineNr(), loc.getColumnNr()});
         JsonToken t = p.currentToken();
+        if (p instanceof com.fasterxml.jackson.dataformat.yaml.YAMLParser y && y.isCurrentAlias()) {
+            // Jackson reads a scalar alias as its name's text ("*day" as "day"): refuse it, never use it.
+            problems.add(file + " line " + loc.getLineNr() + ", column " + loc.getColumnNr() + ": " + path
+                    + ": the YAML alias *" + p.getText() + " is not supported; write the value out in full");
+            return NODES.nullNode();
+        }
         switch (t) {
             case START_OBJECT: {
                 ObjectNode obj = NODES.objectNode();

@@ -65,7 +65,7 @@ public final class Observe {
         String[] material = new String[n];
         String[] district = new String[n];
         Path cellsDir = runDir.resolve("tables").resolve("cells");
-        for (Row row : spark.read().parquet(cellsDir.toUri().toString())
+        for (Row row : spark.read().parquet(org.thermotile.jobs.storage.OutputStore.localUri(cellsDir))
                 .filter("scenario = 'baseline'").select("col", "row", "material", "district").collectAsList()) {
             int i = row.getInt(1) * cols + row.getInt(0);
             material[i] = row.getString(2);
@@ -76,7 +76,7 @@ public final class Observe {
             throw new UserInputException(runDir + ": the run kept no hourly surface temperatures (tables/cell_hours); "
                     + "fix: run it again with outputs.hourly_days naming the acquisition days");
         }
-        List<Row> timeRows = spark.read().parquet(hoursDir.toUri().toString()).filter("scenario = 'baseline'")
+        List<Row> timeRows = spark.read().parquet(org.thermotile.jobs.storage.OutputStore.localUri(hoursDir)).filter("scenario = 'baseline'")
                 .select("time").distinct().collectAsList();
         TreeMap<Instant, String> kept = new TreeMap<>();
         for (Row t : timeRows) {
@@ -229,7 +229,7 @@ public final class Observe {
         double[] b = new double[n];
         Arrays.fill(a, Double.NaN);
         Arrays.fill(b, Double.NaN);
-        for (Row row : spark.read().parquet(hoursDir.toUri().toString())
+        for (Row row : spark.read().parquet(org.thermotile.jobs.storage.OutputStore.localUri(hoursDir))
                 .filter(org.apache.spark.sql.functions.col("scenario").equalTo("baseline")
                         .and(org.apache.spark.sql.functions.col("time").isin(p.t0s(), p.t1s())))
                 .select("col", "row", "time", "surface_c").collectAsList()) {

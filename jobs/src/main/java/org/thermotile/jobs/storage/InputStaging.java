@@ -105,11 +105,17 @@ public final class InputStaging {
             throw new UserInputException("run file: " + key + " is missing");
         }
         if (location.startsWith("file:")) {
-            return Path.of(java.net.URI.create(location));
+            return readable(Path.of(java.net.URI.create(location)), key);
         }
         if (isRemote(location)) {
             return local(location, key);
         }
-        return Path.of(location);
+        return readable(Path.of(location), key);
+    }
+
+    /** {@code p}, after checking that a file that is there may be read (a missing one has its own message). */
+    private static Path readable(Path p, String key) {
+        Diagnose.checkReadable(p, "run file: " + key);
+        return p;
     }
 }

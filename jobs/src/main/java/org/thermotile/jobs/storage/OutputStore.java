@@ -58,7 +58,17 @@ public final class OutputStore {
     /** The location Spark reads or writes for {@code local}: its mirror's URI, or the local URI. */
     public static String sparkUri(Path local) {
         String m = mirrored(local);
-        return m != null ? m : local.toUri().toString();
+        return m != null ? m : localUri(local);
+    }
+
+    /**
+     * A local path as the location string Spark and Hadoop read: {@code file://} and the absolute
+     * path as it is. Not {@link Path#toUri}: Hadoop's {@code Path(String)} would keep its
+     * percent-escapes literally, so a folder with a space ({@code %20}) or a non-ASCII letter in its
+     * name would be written beside, not into, the folder asked for.
+     */
+    public static String localUri(Path local) {
+        return "file://" + local.toAbsolutePath().normalize().toString().replace('\\', '/');
     }
 
     /** Where a task opens a file the driver wrote under a staging folder: its mirror's URI or the path. */
