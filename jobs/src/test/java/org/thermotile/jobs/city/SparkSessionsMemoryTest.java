@@ -2,6 +2,7 @@ package org.thermotile.jobs.city;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertTrue;
+import static org.junit.jupiter.api.Assumptions.assumeTrue;
 
 import org.apache.spark.SparkConf;
 import org.apache.spark.sql.SparkSession;
@@ -21,6 +22,9 @@ class SparkSessionsMemoryTest {
 
     @Test
     void broadcastBlocksAndSortPagesAreNotHumongousAndASubmitterMayOverride() throws Exception {
+        // A session left running by another test would be returned as it is, with its own settings.
+        assumeTrue(SparkSession.getDefaultSession().isEmpty() && SparkSession.getActiveSession().isEmpty(),
+                "another test's Spark session is still running");
         String old = System.getProperty("spark.buffer.pageSize");
         System.setProperty("spark.buffer.pageSize", "2m");
         try (SparkSession spark = SparkSessions.get(null, 1)) {
