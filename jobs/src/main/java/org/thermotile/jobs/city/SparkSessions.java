@@ -18,6 +18,12 @@ public final class SparkSessions {
     /** How long to try to open a TCP connection to each {@code spark://} master [ms] (our choice). */
     static final int CONNECT_TIMEOUT_MS = 5_000;
 
+    /** Broadcast block (and buffer chunk) size: below half of G1's smallest region (1 MB). */
+    static final String BROADCAST_BLOCK = "256k";
+
+    /** Tungsten page of the sorts before partitioned writes: below half of G1's smallest region. */
+    static final String SORT_PAGE = "256k";
+
     /**
      * Spark settings that decide the output bytes; set whatever the submitter gave, so a cluster
      * run writes the same files as an embedded one.
@@ -34,7 +40,18 @@ public final class SparkSessions {
         {"spark.ui.enabled", "false"},
         {"spark.ui.showConsoleProgress", "false"},
         {"spark.sql.shuffle.partitions", "4"},
+        // Memory flat in hours: Spark's defaults allocate one 4 MB buffer per broadcast (every job's
+        // task binary is one) and up to 64 MB sort pages for the partitioned table writes. Under G1
+        // with a few-GB heap (2 MB regions) each of these is a humongous object, which starts a
+        // concurrent cycle and makes G1 grow the heap; a city run has hundreds of jobs (one per batch
+        // of tile totals, per map strip), so the committed heap and the resident set grew with the
+        // length of the run, not with what it holds. Below half a region they are plain young
+        // objects. Neither setting changes a byte of the outputs (checked on a synthetic city's maps
+        // and tables, see BENCHMARKS.md).
+        {"spark.broadcast.blockSize", BROADCAST_BLOCK},
+        {"spark.buffer.pageSize", SORT_PAGE},
     };
+
 
     /**
      * A session on {@code master} (null = the {@code spark.master} property if set, else embedded

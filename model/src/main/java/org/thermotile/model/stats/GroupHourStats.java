@@ -15,8 +15,9 @@ import java.util.Arrays;
  * group's cells span a few kelvin in an hour, so typically 5–40 bins instead of {@value #BINS});
  * values are added hour by hour (every cell of hour h before any of hour h + 1, as a tile run
  * does), gathered in one full-width histogram per group and trimmed when the hour changes. The
- * bins, and so the quantiles, are exactly those of a full histogram. What still grows with the
- * hours is the per-hour result itself (mean, band and count per group and hour).
+ * bins, and so the quantiles, are exactly those of a full histogram. The full-width histograms
+ * are cleared and reused from hour to hour, so adding allocates only the trimmed copies. What still
+ * grows with the hours is the per-hour result itself (mean, band and count per group and hour).
  */
 public final class GroupHourStats implements java.io.Serializable {
     private static final long serialVersionUID = 2L;
@@ -35,8 +36,13 @@ public final class GroupHourStats implements java.io.Serializable {
     private final int[][] bins;
     /** The hour being gathered in {@link #open} (−1: none). */
     private transient int openHour = -1;
-    /** Full-width histograms of the open hour, per group (null until used). */
+    /**
+     * Full-width histograms of the open hour, per group (null until a group is first used), reused
+     * from hour to hour: zero outside the open hour's added bins.
+     */
     private transient int[][] open;
+    /** Per group, whether it has values in the open hour. */
+    private transient boolean[] touched;
 
     public GroupHourStats(int groups, int hours) {
         this.groups = groups;
@@ -65,11 +71,15 @@ public final class GroupHourStats implements java.io.Serializable {
         }
         if (open == null) {
             open = new int[groups][];
+            touched = new boolean[groups];
         }
         int[] o = open[g];
-        if (o == null) {
-            o = new int[BINS];
-            open[g] = o;
+        if (!touched[g]) {
+            if (o == null) {
+                o = new int[BINS];
+                open[g] = o;
+            }
+            touched[g] = true;
             addTrimmed(o, gh); // the hour may have been closed before (added out of order)
             bins[gh] = EMPTY;
         }
@@ -83,7 +93,7 @@ public final class GroupHourStats implements java.io.Serializable {
         }
         for (int g = 0; g < groups; g++) {
             int[] o = open[g];
-            if (o == null) {
+            if (!touched[g]) {
                 continue;
             }
             int gh = g * hours + openHour;
@@ -97,7 +107,10 @@ public final class GroupHourStats implements java.io.Serializable {
             }
             firstBin[gh] = (short) (lo < BINS ? lo : 0);
             bins[gh] = lo <= hi ? Arrays.copyOfRange(o, lo, hi + 1) : EMPTY;
-            open[g] = null;
+            if (lo <= hi) {
+                Arrays.fill(o, lo, hi + 1, 0); // every non-zero bin lies in lo … hi: the array is clear again
+            }
+            touched[g] = false;
         }
         openHour = -1;
     }
