@@ -77,8 +77,14 @@ final class RunCommand implements Callable<Integer> {
                 reportProblem[0] = e.getMessage();   // the run is still complete; only its report is missing
             }
         };
-        CityJob.Summary s = CityJob.run(null, periods,
-                new CityJob.Options(dir, master, replace, quiet, threads, resume, report), console);
+        CityJob.Summary s;
+        if (run.observations().isEmpty()) {
+            s = CityJob.run(null, periods, new CityJob.Options(dir, master, replace, quiet, threads, resume, report),
+                    console);
+        } else {
+            s = runObserved(run, periods, new CityJob.Options(dir, master, replace, quiet, threads, resume, report),
+                    console);
+        }
         String where = CityJob.remoteOutput(s.outDir()) != null ? CityJob.remoteOutput(s.outDir()) : s.outDir().toString();
         console.printf(Locale.ROOT, "done: %d cells, %.3g cell-hours in %.1f s (%.3g cell-hours/s), "
                         + "largest closure residual %.1e%n", s.cells(), (double) s.cellHours(), s.wallSeconds(),
@@ -103,6 +109,10 @@ final class RunCommand implements Callable<Integer> {
                 console.println("  comparison/summary.md, ranking.csv, districts.csv");
             }
         }
+        if (!run.observations().isEmpty()) {
+            console.println("  observed/  agreement.csv, agreement.parquet, pairs.csv, pairs.parquet, difference_*.tif, "
+                    + "CAUTIONS.txt (" + run.observations().size() + " images)");
+        }
         console.println("  manifest.json");
         if (reportProblem[0] == null) {
             console.println("  report:    " + where + "/" + org.thermotile.jobs.report.RunReport.FILE
@@ -112,5 +122,34 @@ final class RunCommand implements Callable<Integer> {
         }
         console.println("Surface temperature is not air temperature nor a heat-health index.");
         return s;
+    }
+
+    /**
+     * A run with an {@code observations:} block: the images are checked against the grid before
+     * anything is simulated, and compared with the finished run inside its folder before it is
+     * published (then the report), so a failed comparison leaves nothing behind.
+     */
+    private static CityJob.Summary runObserved(RunFile run, List<PreparedRun> periods, CityJob.Options opt,
+            PrintStream console) {
+        org.thermotile.jobs.observe.ObservationSet set = org.thermotile.jobs.observe.ObservationSet.of(run);
+        org.thermotile.jobs.observe.Observe.check(set, periods.get(0).grid());
+        org.apache.spark.sql.SparkSession spark = org.thermotile.jobs.city.SparkSessions.get(opt.master(),
+                opt.threads());
+        try {
+            java.util.function.Consumer<Path> report = opt.beforePublish();
+            java.util.function.Consumer<Path> both = folder -> {
+                for (var r : org.thermotile.jobs.observe.Observe.run(spark, folder, set)) {
+                    if (!opt.quiet()) {
+                        console.printf(Locale.ROOT, "observed %s: %d pixels, bias %.2f K, RMSE %.2f K, MAE %.2f K%n",
+                                r.name(), r.all().count(), r.all().bias(), r.all().rmse(), r.all().mae());
+                    }
+                }
+                report.accept(folder);
+            };
+            return CityJob.run(spark, periods, new CityJob.Options(opt.outDir(), opt.master(), opt.replace(),
+                    opt.quiet(), opt.threads(), opt.resume(), both), console);
+        } finally {
+            spark.stop();
+        }
     }
 }
