@@ -85,6 +85,7 @@ class ObservedRunTest {
         out = dir.resolve("out");
         assertEquals(0, org.thermotile.jobs.cli.Main.execute("run", rf.toString(), "--out", out.toString(),
                 "--quiet"));
+        assertEquals(0, org.thermotile.jobs.cli.Main.execute("check", rf.toString()), "check of a good block");
         spark = SparkSessions.get(null, 2);
     }
 
@@ -191,6 +192,7 @@ class ObservedRunTest {
                 System.setErr(old);
             }
             assertEquals(2, code, c[0]);
+            assertEquals(2, org.thermotile.jobs.cli.Main.execute("check", rf.toString()), "check " + c[0]);
             assertTrue(err.toString().contains(c[2]) && err.toString().contains(c[3]), c[0] + ": " + err);
             assertFalse(Files.exists(o), c[0]);
             assertFalse(Files.exists(dir.resolve(".bad-" + c[0] + ".partial")), c[0]);
