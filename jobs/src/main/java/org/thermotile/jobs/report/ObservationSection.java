@@ -161,8 +161,8 @@ final class ObservationSection {
                 "each cell shows the pixel covering most of it", "K", ColourRamp.FULCRUM);
         MapRenderer.Figure f = MapRenderer.render(v, g, outlines, style, -m, m);
         String caption = "Difference map of " + image + " on the Fulcrum ramp, centred on 0 K (colour ends ±"
-                + MapRenderer.legendValue(m) + " K): warmer simulated than observed towards one end, cooler towards "
-                + "the other; hatched cells have no compared pixel.";
+                + MapRenderer.legendValue(m) + " K): brown where the simulation is warmer than the image, blue where it "
+                + "is cooler; hatched cells have no compared pixel (edges, masked clouds, no data).";
         b.append("<figure class=\"map\" id=\"difference-").append(Html.esc(image)).append("\">\n")
                 .append("<img src=\"data:image/png;base64,").append(Base64.getEncoder().encodeToString(f.png()))
                 .append("\" width=\"").append(f.width()).append("\" height=\"").append(f.height()).append("\" alt=\"")
