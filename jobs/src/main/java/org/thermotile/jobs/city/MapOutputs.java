@@ -100,7 +100,9 @@ final class MapOutputs {
             java.util.Map<java.time.LocalDate, List<Integer>> byDay = new java.util.TreeMap<>();
             for (int i = 0; i < hours.length; i++) {
                 java.time.LocalDate d = java.time.LocalDateTime.ofEpochSecond(hours[i], 0, off).toLocalDate();
-                byDay.computeIfAbsent(d, k -> new ArrayList<>()).add(i);
+                if (p.run().outputs().hourlyDays().contains(d)) {   // not the hours kept only for observations
+                    byDay.computeIfAbsent(d, k -> new ArrayList<>()).add(i);
+                }
             }
             for (var e : byDay.entrySet()) {
                 Layer layer = new Layer(null, e.getValue().stream().mapToInt(Integer::intValue).toArray());

@@ -441,6 +441,16 @@ public final class RunPreparer {
         }
         // The statistics run from firstSample to the end of the forcing: the slice ends at or after `end`.
         int lastSample = firstSample + samples.size();
+        if (!run.observations().isEmpty()) {
+            // Observed images: only the hours bracketing each acquisition time are kept besides hourly_days.
+            int[] kept = KeptHours.of(forcing.epochSecond, firstSample, lastSample, hourlyIdx, run.observations());
+            hourlyIdx = new ArrayList<>();
+            hourlyTimes = new ArrayList<>();
+            for (int h : kept) {
+                hourlyIdx.add(h);
+                hourlyTimes.add(forcing.epochSecond[h]);
+            }
+        }
         Forcing used = lastSample < forcing.hours() ? truncate(forcing, lastSample) : forcing;
         double deepK = run.physics().deepGroundTempK();
         if (Double.isNaN(deepK)) {

@@ -29,6 +29,9 @@ final class CheckCommand implements Callable<Integer> {
         RunFile run = RunFileReader.read(runFile);
         java.util.List<PreparedRun> periods = RunPreparer.prepareAll(run, false);
         PreparedRun p = periods.get(0);
+        if (!run.observations().isEmpty()) {
+            org.thermotile.jobs.observe.Observe.check(org.thermotile.jobs.observe.ObservationSet.of(run), p.grid());
+        }
         PrintWriter out = spec.commandLine().getOut();
         out.printf(Locale.ROOT, "%s: ok%n", runFile);
         out.printf(Locale.ROOT, "  grid %d × %d cells of %.2f m, EPSG:%d, %d tiles of %d%n", p.grid().width(),
@@ -54,6 +57,10 @@ final class CheckCommand implements Callable<Integer> {
                     t.hasCost() ? String.format(Locale.ROOT, ", cost %.0f", java.util.stream.IntStream
                             .rangeClosed(0, p.districtNames().size())
                             .mapToDouble(d -> t.cost(d, p.grid().pixelAreaM2())).sum()) : "");
+        }
+        if (!run.observations().isEmpty()) {
+            out.printf(Locale.ROOT, "  observations: %d images on the grid; hours kept for them and hourly_days: %d%n",
+                    run.observations().size(), p.hourlyEpochSeconds().length);
         }
         periods.forEach(x -> x.notes().forEach(n -> out.println("  note: " + (x.period() == null ? "" : x.period() + ": ")
                 + n)));

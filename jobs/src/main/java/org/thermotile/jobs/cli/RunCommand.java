@@ -5,11 +5,16 @@ import java.nio.file.Path;
 import java.util.List;
 import java.util.Locale;
 import java.util.concurrent.Callable;
+import java.util.function.Consumer;
+import org.apache.spark.sql.SparkSession;
 import org.thermotile.jobs.city.CityJob;
 import org.thermotile.jobs.city.PreparedRun;
 import org.thermotile.jobs.city.RunPreparer;
+import org.thermotile.jobs.city.SparkSessions;
 import org.thermotile.jobs.config.RunFile;
 import org.thermotile.jobs.config.RunFileReader;
+import org.thermotile.jobs.observe.ObservationSet;
+import org.thermotile.jobs.observe.Observe;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
@@ -75,15 +80,20 @@ final class RunCommand implements Callable<Integer> {
         }
         // The report is written into the finished folder before it is published, so it appears with it.
         String[] reportProblem = {null};
-        java.util.function.Consumer<Path> report = folder -> {
+        Consumer<Path> report = folder -> {
             try {
                 org.thermotile.jobs.report.RunReport.write(folder);
             } catch (RuntimeException e) {
                 reportProblem[0] = e.getMessage();   // the run is still complete; only its report is missing
             }
         };
-        CityJob.Summary s = CityJob.run(null, periods,
-                new CityJob.Options(dir, master, replace, quiet, threads, resume, report, runFileName), console);
+        CityJob.Summary s;
+        CityJob.Options options = new CityJob.Options(dir, master, replace, quiet, threads, resume, report, runFileName);
+        if (run.observations().isEmpty()) {
+            s = CityJob.run(null, periods, options, console);
+        } else {
+            s = runObserved(run, periods, options, console);
+        }
         String where = CityJob.remoteOutput(s.outDir()) != null ? CityJob.remoteOutput(s.outDir()) : s.outDir().toString();
         console.printf(Locale.ROOT, "done: %d cells, %.3g cell-hours in %.1f s (%.3g cell-hours/s), "
                         + "largest closure residual %.1e%n", s.cells(), (double) s.cellHours(), s.wallSeconds(),
@@ -108,6 +118,10 @@ final class RunCommand implements Callable<Integer> {
                 console.println("  comparison/summary.md, ranking.csv, districts.csv");
             }
         }
+        if (!run.observations().isEmpty()) {
+            console.println("  observed/  agreement.csv, agreement.parquet, pairs.csv, pairs.parquet, difference_*.tif, "
+                    + "CAUTIONS.txt (" + run.observations().size() + " images)");
+        }
         console.println("  manifest.json");
         if (reportProblem[0] == null) {
             console.println("  report:    " + where + "/" + org.thermotile.jobs.report.RunReport.FILE
@@ -117,5 +131,34 @@ final class RunCommand implements Callable<Integer> {
         }
         console.println("Surface temperature is not air temperature nor a heat-health index.");
         return s;
+    }
+
+    /**
+     * A run with an {@code observations:} block: the images are checked against the grid before
+     * anything is simulated, and compared with the finished run inside its folder before it is
+     * published (then the report), so a failed comparison leaves nothing behind.
+     */
+    private static CityJob.Summary runObserved(RunFile run, List<PreparedRun> periods, CityJob.Options opt,
+            PrintStream console) {
+        ObservationSet set = ObservationSet.of(run);
+        Observe.check(set, periods.get(0).grid());
+        SparkSession spark = SparkSessions.get(opt.master(),
+                opt.threads());
+        try {
+            Consumer<Path> report = opt.beforePublish();
+            Consumer<Path> both = folder -> {
+                for (var r : Observe.run(spark, folder, set)) {
+                    if (!opt.quiet()) {
+                        console.printf(Locale.ROOT, "observed %s: %d pixels, bias %.2f K, RMSE %.2f K, MAE %.2f K%n",
+                                r.name(), r.all().count(), r.all().bias(), r.all().rmse(), r.all().mae());
+                    }
+                }
+                report.accept(folder);
+            };
+            return CityJob.run(spark, periods, new CityJob.Options(opt.outDir(), opt.master(), opt.replace(),
+                    opt.quiet(), opt.threads(), opt.resume(), both, opt.runFile()), console);
+        } finally {
+            spark.stop();
+        }
     }
 }

@@ -49,10 +49,51 @@ import org.thermotile.model.constants.Physical;
  *                  {@code period} that of the first entry.
  * @param grid      the working grid ({@code grid:}): CRS, cell size and area of interest, each
  *                  optional ({@link Grid#DEFAULT} when the section is absent)
+ * @param observations thermal images the finished run is compared with ({@code observations:}),
+ *                  in file order; empty when there are none
  */
 public record RunFile(String source, String name, Site site, Inputs inputs, Weather weather,
         Period period, Physics physics, Outputs outputs, Tiling tiling, Map<String, JsonNode> reserved,
-        List<Scenario> scenarios, int sweepMax, List<NamedPeriod> periods, Grid grid) {
+        List<Scenario> scenarios, int sweepMax, List<NamedPeriod> periods, Grid grid,
+        List<Observation> observations) {
+
+    /** A run file without observations. */
+    public RunFile(String source, String name, Site site, Inputs inputs, Weather weather,
+            Period period, Physics physics, Outputs outputs, Tiling tiling, Map<String, JsonNode> reserved,
+            List<Scenario> scenarios, int sweepMax, List<NamedPeriod> periods, Grid grid) {
+        this(source, name, site, inputs, weather, period, physics, outputs, tiling, reserved, scenarios,
+                sweepMax, periods, grid, List.of());
+    }
+
+    /**
+     * One thermal image of {@code observations:} (the same entries as an observations file read by
+     * {@code thermotile observe}).
+     *
+     * @param file     the image GeoTIFF, absolute (or a URI as written)
+     * @param time     acquisition time (UTC instant)
+     * @param kind     surface_temperature | brightness_temperature | radiance
+     * @param units    K or degC (temperatures)
+     * @param scale    stored value · scale + offset = physical value
+     * @param offset   see {@code scale}
+     * @param nodata   stored value without observation, NaN when not given
+     * @param k1       band constant K1 [W m⁻² sr⁻¹ µm⁻¹], NaN when not given
+     * @param k2       band constant K2 [K], NaN when not given
+     * @param fromUm   band's short edge [µm], NaN when not given
+     * @param toUm     band's long edge [µm], NaN when not given
+     * @param maskFile quality mask on the image's grid, absolute, or null
+     * @param maskKeep the mask codes of good pixels (empty without a mask)
+     * @param where    the entry's place in the run file ("run.yaml line 80, column 5: observations[0].time"),
+     *                 for messages about its time that only the prepared weather can check
+     */
+    public record Observation(String file, java.time.Instant time, String kind, String units, double scale,
+            double offset, double nodata, double k1, double k2, double fromUm, double toUm, String maskFile,
+            List<Integer> maskKeep, String where) {
+        public Observation {
+            Objects.requireNonNull(file, "file");
+            Objects.requireNonNull(time, "time");
+            maskKeep = maskKeep == null ? List.of() : List.copyOf(maskKeep);
+        }
+    }
 
     /** A run file with the default working grid ({@link Grid#DEFAULT}). */
     public RunFile(String source, String name, Site site, Inputs inputs, Weather weather,
@@ -108,7 +149,7 @@ public record RunFile(String source, String name, Site site, Inputs inputs, Weat
             }
         }
         return new RunFile(source, name, site, inputs, p.weather(), p.period(), physics, outputs, tiling, res,
-                scenarios, sweepMax, List.of(), grid);
+                scenarios, sweepMax, List.of(), grid, observations);
     }
 
     public RunFile {
@@ -126,6 +167,7 @@ public record RunFile(String source, String name, Site site, Inputs inputs, Weat
         scenarios = scenarios == null ? List.of() : List.copyOf(scenarios);
         periods = periods == null ? List.of() : List.copyOf(periods);
         grid = grid == null ? Grid.DEFAULT : grid;
+        observations = observations == null ? List.of() : List.copyOf(observations);
     }
 
     /**
@@ -562,6 +604,9 @@ public record RunFile(String source, String name, Site site, Inputs inputs, Weat
             putGrid(root.putObject("grid"));
         }
         reserved.forEach((k, v) -> root.set(k, v.deepCopy()));
+        if (!observations.isEmpty()) {
+            putObservations(root.putArray("observations"));
+        }
         if (!periods.isEmpty() && root.get("sweep") instanceof ObjectNode sw) {
             ArrayNode ps = sw.putArray("periods");   // resolved: absolute weather files, ISO times
             for (NamedPeriod np : periods) {
@@ -576,6 +621,33 @@ public record RunFile(String source, String name, Site site, Inputs inputs, Weat
             }
         }
         return root;
+    }
+
+    /** The resolved {@code observations:} list (absolute files, UTC times, every default filled in). */
+    private void putObservations(ArrayNode list) {
+        for (Observation o : observations) {
+            ObjectNode n = list.addObject();
+            n.put("file", o.file());
+            n.put("time", o.time().toString());
+            n.put("kind", o.kind());
+            n.put("units", o.units());
+            n.put("scale", o.scale());
+            n.put("offset", o.offset());
+            if (!Double.isNaN(o.nodata())) {
+                n.put("nodata", o.nodata());
+            }
+            if (!Double.isNaN(o.k1())) {
+                n.putObject("band").put("k1", o.k1()).put("k2", o.k2());
+            } else if (!Double.isNaN(o.fromUm())) {
+                n.putObject("band").put("from_um", o.fromUm()).put("to_um", o.toUm());
+            }
+            if (o.maskFile() != null) {
+                ObjectNode m = n.putObject("mask");
+                m.put("file", o.maskFile());
+                ArrayNode keep = m.putArray("keep");
+                o.maskKeep().forEach(keep::add);
+            }
+        }
     }
 
     /** One location as text, several (tiles) as a list. */

@@ -54,7 +54,7 @@ public final class RunFileReader {
     public static final int DEFAULT_TILE_SIZE = 256;
 
     static final List<String> TOP = List.of("name", "site", "inputs", "weather", "period", "physics",
-            "outputs", "tiling", "grid");
+            "outputs", "tiling", "grid", "observations");
     static final List<String> SITE = List.of("latitude", "longitude", "elevation_m");
     static final List<String> INPUTS = List.of("land_cover", "classes", "materials", "heights", "districts",
             "buildings");
@@ -75,6 +75,13 @@ public final class RunFileReader {
     static final List<String> TILING = List.of("tile_size");
     static final List<String> GRID = List.of("crs", "cell_size_m", "area");
     static final List<String> AREA = List.of("bbox", "crs", "polygon");
+    /** Keys of one {@code observations:} entry (those of an observations file for {@code thermotile observe}). */
+    static final List<String> OBSERVATION = List.of("file", "time", "kind", "units", "scale", "offset", "nodata",
+            "band", "mask");
+    static final List<String> OBSERVATION_KINDS = List.of("surface_temperature", "brightness_temperature",
+            "radiance");
+    static final List<String> BAND = List.of("k1", "k2", "from_um", "to_um");
+    static final List<String> MASK = List.of("file", "keep");
 
     /** Which section each key belongs to, for "'tile_size' belongs under 'tiling'". */
     private static final Map<String, String> HOME = new LinkedHashMap<>();
@@ -178,6 +185,8 @@ public final class RunFileReader {
                 "add 'outputs:' with at least 'maps: [peak]'"), spans);
         RunFile.Tiling tiling = tiling(top.section("tiling", false, ""));
         RunFile.Grid grid = grid(top.section("grid", false, ""), baseDir);
+        List<RunFile.Observation> observations = observations(top, baseDir, period, weather, !periods.isEmpty()
+                || (top.raw("sweep") != null && top.raw("sweep").has("periods")));
 
         Map<String, JsonNode> reserved = new TreeMap<>();
         for (String k : RESERVED_KEYS) {
@@ -190,7 +199,7 @@ public final class RunFileReader {
             return null;
         }
         return new RunFile(source, name, site, inputs, weather, period, physics, outputs, tiling, reserved,
-                sc.scenarios(), sc.sweepMax(), periods, grid);
+                sc.scenarios(), sc.sweepMax(), periods, grid, observations);
     }
 
     // ---------------------------------------------------------------- sections
@@ -654,6 +663,144 @@ public final class RunFileReader {
             }
         }
         return new RunFile.Outputs(maps, threshold == null ? Double.NaN : threshold, new ArrayList<>(days));
+    }
+
+    /**
+     * {@code observations:}: thermal images compared with the finished run. Each entry needs a file
+     * and an acquisition time with Z or an offset; a time outside the counted period is refused here
+     * when the weather states its UTC offset (synthetic weather, {@code weather.utc_offset}), else by
+     * the run check once the weather file is read. Files are resolved, not opened: whether the
+     * image covers the grid and its mask keeps any pixel is the run check's business.
+     */
+    private static List<RunFile.Observation> observations(Section top, Path baseDir, RunFile.Period period,
+            RunFile.Weather weather, boolean sweepPeriods) {
+        List<RunFile.Observation> out = new ArrayList<>();
+        String fix = "list images, e.g. observations: [{file: lst.tif, time: 2026-07-16T10:30:00Z}]";
+        JsonNode list = top.list("observations", false, fix);
+        if (list == null) {
+            return out;
+        }
+        YamlDoc doc = top.doc;
+        if (list.isEmpty()) {
+            doc.at("observations", "is empty; " + fix + ", or remove the key");
+        }
+        if (sweepPeriods && !list.isEmpty()) {
+            doc.at("observations", "is given together with sweep.periods; an image belongs to one period. Fix: "
+                    + "run that period as a run of its own with the observations, or compare afterwards with "
+                    + "'thermotile observe PERIOD_DIR --observations FILE.yaml'");
+        }
+        ZoneOffset offset = weather == null ? null : weather.isSynthetic() ? weather.synthetic().utcOffset()
+                : weather.mapping() != null ? weather.mapping().utcOffset() : null;
+        java.util.Set<String> names = new java.util.HashSet<>();
+        for (int i = 0; i < list.size(); i++) {
+            Section s = Section.of(doc, list.get(i), "observations[" + i + "]");
+            if (s == null) {
+                continue;
+            }
+            s.checkKeys(OBSERVATION, List.of(), Map.of());
+            String file = location(s, "file", true, "name the image's GeoTIFF, e.g. file: observed/lst.tif", baseDir);
+            if (file != null) {
+                String stem = Path.of(file).getFileName().toString().replaceFirst("\\.[A-Za-z]+$", "");
+                if (!names.add(stem)) {
+                    doc.at(s.child("file"), "another image has the file name '" + stem + "' (its difference map would "
+                            + "overwrite this one's); give the images distinct file names");
+                }
+            }
+            java.time.Instant time = null;
+            String t = s.text("time", true, "give the acquisition time in UTC, e.g. time: 2026-07-16T10:30:00Z");
+            if (t != null) {
+                try {
+                    time = java.time.OffsetDateTime.parse(t).toInstant();
+                } catch (DateTimeParseException e) {
+                    doc.at(s.child("time"), "'" + t + "' is not an ISO-8601 time with Z or an offset; write e.g. "
+                            + "2026-07-16T10:30:00Z or 2026-07-16T12:30:00+02:00");
+                }
+            }
+            if (time != null && period != null && offset != null) {
+                java.time.Instant first = period.start().toInstant(offset);
+                java.time.Instant last = period.end().toInstant(offset).minusSeconds(3600);
+                if (time.isBefore(first) || time.isAfter(last)) {
+                    doc.at(s.child("time"), time + " is outside the run's counted hours " + first + " … " + last
+                            + " (period " + period.start() + " … " + period.end() + ", UTC offset " + offset
+                            + "); correct the time, or widen the period to hold it");
+                }
+            }
+            String kind = s.text("kind", false, "give one of " + String.join(", ", OBSERVATION_KINDS));
+            if (kind != null && !OBSERVATION_KINDS.contains(kind)) {
+                doc.at(s.child("kind"), "'" + kind + "' is not a kind of image" + Suggest.didYouMean(kind,
+                        OBSERVATION_KINDS) + "; use one of " + String.join(", ", OBSERVATION_KINDS));
+                kind = null;
+            }
+            kind = kind == null ? "surface_temperature" : kind;
+            String units = s.text("units", false, "give K or degC");
+            if (units != null && !units.equals("K") && !units.equals("degC")) {
+                doc.at(s.child("units"), "'" + units + "' is not a temperature unit" + Suggest.didYouMean(units,
+                        List.of("K", "degC")) + "; use K or degC");
+            }
+            if (kind.equals("radiance") && "degC".equals(units)) {
+                doc.at(s.child("units"), "a radiance is not in degC; remove 'units' (radiance is W m-2 sr-1 um-1)");
+            }
+            units = units == null || !units.equals("degC") ? "K" : units;
+            Double scale = s.number("scale", false, "give the factor of the stored values, e.g. 0.00341802");
+            if (scale != null && scale == 0) {
+                doc.at(s.child("scale"), "is 0, which maps every value to the offset; give the product's scale factor");
+            }
+            Double off = s.number("offset", false, "give the offset of the stored values, e.g. 149.0");
+            Double nodata = s.number("nodata", false, "give the stored value of pixels without observation, e.g. 0");
+            double k1 = Double.NaN, k2 = Double.NaN, from = Double.NaN, to = Double.NaN;
+            Section band = s.section("band", false, "");
+            if (band != null) {
+                band.checkKeys(BAND, List.of(), Map.of());
+                Double a = band.number("k1", false, "give the band's K1 [W m-2 sr-1 um-1]");
+                Double b = band.number("k2", false, "give the band's K2 [K]");
+                Double c = band.number("from_um", false, "give the band's short edge in um");
+                Double d = band.number("to_um", false, "give the band's long edge in um");
+                boolean hasK = a != null && b != null && a > 0 && b > 0;
+                boolean hasW = c != null && d != null && d > c && c > 0;
+                if (hasK == hasW) {
+                    doc.at(band.path, "give either {k1, k2} (both > 0) or {from_um, to_um} (to_um > from_um > 0), "
+                            + "e.g. band: {k1: 774.8853, k2: 1321.0789}");
+                } else if (hasK) {
+                    k1 = a;
+                    k2 = b;
+                } else {
+                    from = c;
+                    to = d;
+                }
+            } else if (!kind.equals("surface_temperature")) {
+                s.missing("band", "kind " + kind + " needs the sensor band: band: {k1: .., k2: ..} or "
+                        + "band: {from_um: .., to_um: ..}");
+            }
+            String maskFile = null;
+            List<Integer> keep = new ArrayList<>();
+            Section mask = s.section("mask", false, "");
+            if (mask != null) {
+                mask.checkKeys(MASK, List.of(), Map.of());
+                maskFile = location(mask, "file", true, "name the quality-mask GeoTIFF on the image's grid", baseDir);
+                JsonNode kl = mask.list("keep", true, "list the codes of good pixels, e.g. keep: [1]");
+                if (kl != null && kl.isEmpty()) {
+                    doc.at(mask.child("keep"), "is empty, so no pixel would be kept; list the codes of good pixels, "
+                            + "e.g. keep: [1]");
+                }
+                if (kl != null) {
+                    for (int j = 0; j < kl.size(); j++) {
+                        JsonNode k = kl.get(j);
+                        if (!k.canConvertToInt() || !k.isIntegralNumber()) {
+                            doc.at(mask.child("keep") + "[" + j + "]", YamlDoc.describe(k) + " is not a whole-number "
+                                    + "mask code; write codes such as 1 or 64");
+                        } else {
+                            keep.add(k.intValue());
+                        }
+                    }
+                }
+            }
+            if (file != null && time != null) {
+                out.add(new RunFile.Observation(file, time, kind, units, scale == null ? 1.0 : scale,
+                        off == null ? 0.0 : off, nodata == null ? Double.NaN : nodata, k1, k2, from, to, maskFile,
+                        keep, doc.where(s.child("time"))));
+            }
+        }
+        return out;
     }
 
     private static boolean inAny(List<RunFile.Period> periods, LocalDate day) {

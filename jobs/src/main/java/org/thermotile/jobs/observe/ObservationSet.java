@@ -162,6 +162,23 @@ public record ObservationSet(Path file, List<Image> images) {
         return new ObservationSet(file, List.copyOf(images));
     }
 
+    /**
+     * The images of a run file's {@code observations:} block (already checked by the run-file
+     * reader; paths absolute). The set's file is the run file, for messages.
+     */
+    public static ObservationSet of(org.thermotile.jobs.config.RunFile run) {
+        List<Image> images = new ArrayList<>();
+        for (org.thermotile.jobs.config.RunFile.Observation o : run.observations()) {
+            Path img = Path.of(o.file());
+            String name = img.getFileName().toString().replaceFirst("\\.[A-Za-z]+$", "");
+            int[] keep = o.maskKeep().stream().mapToInt(Integer::intValue).toArray();
+            images.add(new Image(name, img, o.time(), o.kind(), new StoredScaling(o.scale(), o.offset(), o.nodata(),
+                    o.units().equals("degC")), o.k1(), o.k2(), o.fromUm(), o.toUm(),
+                    o.maskFile() == null ? null : Path.of(o.maskFile()), o.maskFile() == null ? null : keep));
+        }
+        return new ObservationSet(Path.of(run.source()), List.copyOf(images));
+    }
+
     private static String text(JsonNode n, String key) {
         JsonNode v = n.get(key);
         return v == null || v.isNull() ? null : v.asText();

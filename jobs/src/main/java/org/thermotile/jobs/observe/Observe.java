@@ -56,10 +56,7 @@ public final class Observe {
 
     /** Runs the comparison and writes {@code runDir/observed/}; returns the results per image. */
     public static List<ImageResult> run(SparkSession spark, Path runDir, ObservationSet set) {
-        RasterGrid grid;
-        try (GeoTiffReader r = GeoTiffReader.open(runDir.resolve("maps").resolve("mean.tif"))) {
-            grid = r.grid();
-        }
+        RasterGrid grid = runGrid(runDir);
         int cols = grid.width();
         int n = cols * grid.height();
         String[] material = new String[n];
@@ -110,8 +107,43 @@ public final class Observe {
             double[] sim = simulatedAt(spark, hoursDir, p, n, cols);
             results.add(compare(p, sim, cells, material, district, grid));
         }
-        write(runDir, grid, results);
+        write(spark, runDir, grid, results);
         return results;
+    }
+
+    /**
+     * Checks every image of {@code set} against the run grid before a run starts: readable, its mask
+     * on its grid and keeping some pixel, its CRS transformable, and at least one valid pixel lying
+     * wholly on the grid. Emissivity is not known yet, so a brightness temperature is checked as if
+     * every surface were black; the run repeats the full check.
+     *
+     * @throws UserInputException naming the image and the fix
+     */
+    public static void check(ObservationSet set, RasterGrid grid) {
+        PixelFootprints cells = new PixelFootprints(grid.originX(), grid.originY(), grid.pixelWidth(), grid.width(),
+                grid.height());
+        double[] black = new double[grid.width() * grid.height()];
+        Arrays.fill(black, 1.0);
+        Map.Entry<Instant, String> any = Map.entry(Instant.EPOCH, "");
+        for (ObservationSet.Image img : set.images()) {
+            prepare(img, set, grid, cells, black, any, any);
+        }
+    }
+
+    /** The run's grid, from its mean map (or its first map when it wrote no mean). */
+    private static RasterGrid runGrid(Path runDir) {
+        Path maps = runDir.resolve("maps");
+        Path f = maps.resolve("mean.tif");
+        if (!Files.isRegularFile(f)) {
+            try (var s = Files.list(maps)) {
+                f = s.filter(q -> q.toString().endsWith(".tif")).sorted().findFirst().orElse(f);
+            } catch (IOException e) {
+                throw new UserInputException(runDir + " has no maps/ folder; fix: give a finished run's folder");
+            }
+        }
+        try (GeoTiffReader r = GeoTiffReader.open(f)) {
+            return r.grid();
+        }
     }
 
     private record Prepared(ObservationSet.Image image, List<PixelFootprints.Footprint> footprints,
@@ -301,7 +333,35 @@ public final class Observe {
         return area.entrySet().stream().max(Map.Entry.comparingByValue()).map(Map.Entry::getKey).orElse(null);
     }
 
-    private static void write(Path runDir, RasterGrid grid, List<ImageResult> results) {
+    /** Columns of {@code observed/agreement.parquet}: one row per image and group, units in the names. */
+    static final org.apache.spark.sql.types.StructType AGREEMENT = new org.apache.spark.sql.types.StructType()
+            .add("image", "string", false).add("group", "string", false).add("name", "string", false)
+            .add("count", "long", false).add("bias_k", "double", true).add("rmse_k", "double", true)
+            .add("mae_k", "double", true).add("pearson_r", "double", true);
+
+    /** Columns of {@code observed/pairs.parquet}: one row per compared pixel. */
+    static final org.apache.spark.sql.types.StructType PAIRS = new org.apache.spark.sql.types.StructType()
+            .add("image", "string", false).add("pixel", "int", false).add("simulated_c", "double", false)
+            .add("observed_c", "double", false);
+
+    private static Double orNull(double v) {
+        return Double.isNaN(v) ? null : v;
+    }
+
+    private static Row agreementRow(String image, String group, String name, Agreement a) {
+        return org.apache.spark.sql.RowFactory.create(image, group, name, a.count(), orNull(a.bias()),
+                orNull(a.rmse()), orNull(a.mae()), orNull(a.pearson()));
+    }
+
+    /** One Parquet part (stable name, canonical footer) in the folder {@code dir}. */
+    private static void parquet(SparkSession spark, List<Row> rows, org.apache.spark.sql.types.StructType schema,
+            Path dir) {
+        spark.createDataFrame(rows, schema).coalesce(1).write().mode(org.apache.spark.sql.SaveMode.ErrorIfExists)
+                .parquet(org.thermotile.jobs.storage.OutputStore.sparkUri(dir));
+        org.thermotile.jobs.storage.CanonicalParquet.renameParts(dir);
+    }
+
+    private static void write(SparkSession spark, Path runDir, RasterGrid grid, List<ImageResult> results) {
         Path out = runDir.resolve("observed");
         Path tmp = runDir.resolve(".observed.tmp");
         try {
@@ -309,20 +369,29 @@ public final class Observe {
             Files.createDirectories(tmp);
             StringBuilder csv = new StringBuilder("image,group,name,count,bias_k,rmse_k,mae_k,pearson_r\n");
             StringBuilder pairs = new StringBuilder("image,pixel,simulated_c,observed_c\n");
+            List<Row> agreementRows = new ArrayList<>();
+            List<Row> pairRows = new ArrayList<>();
             for (ImageResult r : results) {
                 GeoTiffWriter.writeFloat(tmp.resolve("difference_" + r.name() + ".tif"), grid, r.difference(),
                         org.thermotile.jobs.city.CityJob.MAP_NODATA);
                 row(csv, r.name(), "all", "all", r.all());
+                agreementRows.add(agreementRow(r.name(), "all", "all", r.all()));
                 r.byMaterial().forEach((k, v) -> row(csv, r.name(), "material", k, v));
+                r.byMaterial().forEach((k, v) -> agreementRows.add(agreementRow(r.name(), "material", k, v)));
                 r.byDistrict().forEach((k, v) -> row(csv, r.name(), "district", k, v));
+                r.byDistrict().forEach((k, v) -> agreementRows.add(agreementRow(r.name(), "district", k, v)));
                 for (int i = 0; i < r.observed().length; i++) {
                     if (!Double.isNaN(r.observed()[i]) && !Double.isNaN(r.simulated()[i])) {
                         pairs.append(r.name()).append(',').append(i).append(',')
                                 .append(fmt(r.simulated()[i] - 273.15)).append(',')
                                 .append(fmt(r.observed()[i] - 273.15)).append('\n');
+                        pairRows.add(org.apache.spark.sql.RowFactory.create(r.name(), i,
+                                r.simulated()[i] - 273.15, r.observed()[i] - 273.15));
                     }
                 }
             }
+            parquet(spark, agreementRows, AGREEMENT, tmp.resolve("agreement.parquet"));
+            parquet(spark, pairRows, PAIRS, tmp.resolve("pairs.parquet"));
             Files.writeString(tmp.resolve("agreement.csv"), csv.toString());
             Files.writeString(tmp.resolve("pairs.csv"), pairs.toString());
             Files.writeString(tmp.resolve("CAUTIONS.txt"), CAUTIONS);
@@ -333,6 +402,9 @@ public final class Observe {
         } catch (IOException e) {
             Folders.deleteQuietly(tmp);
             throw new UncheckedIOException(e);
+        } catch (RuntimeException e) {
+            Folders.deleteQuietly(tmp);
+            throw e;
         }
     }
 

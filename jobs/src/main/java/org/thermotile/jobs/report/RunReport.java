@@ -193,6 +193,7 @@ public final class RunReport {
         hotspotsSection();
         zonesSection();
         scenariosSection();
+        observationSection();
         filesSection();
         return publish(maps);
     }
@@ -984,6 +985,15 @@ public final class RunReport {
     }
 
     // ---------------------------------------------------------------------------------- files
+
+    /** Observed thermal images ({@link ObservationSection}), only when the folder has {@code observed/}. */
+    private void observationSection() {
+        ObservationSection.Drawn d = ObservationSection.html(dir, districtOutlines);
+        if (d != null) {
+            section(ObservationSection.ID, "Observed surface temperatures");
+            body.append(d.html());
+        }
+    }
 
     private void filesSection() {
         section("files", "Files in this folder");

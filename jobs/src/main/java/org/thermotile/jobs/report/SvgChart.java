@@ -23,6 +23,10 @@ final class SvgChart {
         }
     }
 
+    /** Unconnected dots (a scatter plot): legend label, coordinates, fill colour, radius [px]. */
+    record Points(String label, double[] x, double[] y, String colour, double radius) {
+    }
+
     /** A shaded band between {@code lo} and {@code hi}. */
     record Band(double[] x, double[] lo, double[] hi, String colour, double opacity) {
     }
@@ -35,6 +39,7 @@ final class SvgChart {
     private final boolean legend;
     private final List<Series> series = new ArrayList<>();
     private final List<Band> bands = new ArrayList<>();
+    private final List<Points> points = new ArrayList<>();
     private double xMin = Double.NaN, xMax = Double.NaN;
     private double[] xTicks = new double[0];
     private String[] xTickLabels = new String[0];
@@ -66,6 +71,11 @@ final class SvgChart {
 
     SvgChart add(Series s) {
         series.add(s);
+        return this;
+    }
+
+    SvgChart add(Points p) {
+        points.add(p);
         return this;
     }
 
@@ -130,6 +140,17 @@ final class SvgChart {
         b.append("</g>\n");
         for (Band band : bands) {
             b.append(bandPath(band, px, py));
+        }
+        for (Points p : points) {
+            b.append("<g class=\"points\" fill=\"").append(p.colour()).append("\" fill-opacity=\"0.55\"><title>")
+                    .append(Html.esc(p.label())).append("</title>");
+            for (int i = 0; i < p.x().length; i++) {
+                if (Double.isFinite(p.x()[i]) && Double.isFinite(p.y()[i])) {
+                    b.append(String.format(Locale.ROOT, "<circle cx=\"%.1f\" cy=\"%.1f\" r=\"%.1f\"/>",
+                            px.applyAsDouble(p.x()[i]), py.applyAsDouble(p.y()[i]), p.radius()));
+                }
+            }
+            b.append("</g>\n");
         }
         for (Series s : series) {
             b.append(linePath(s, px, py));

@@ -181,7 +181,7 @@ class RunFileReaderTest {
 
         JsonNode json = new ObjectMapper().readTree(rf.toJson());
         assertEquals(List.of("name", "site", "inputs", "weather", "period", "physics", "outputs", "tiling",
-                "hotspots", "scenarios", "sweep"), iterate(json));
+                "hotspots", "scenarios", "sweep", "observations"), iterate(json));
         assertEquals("2026-07-19T00:00", json.get("period").get("end").asText());
         assertTrue(json.get("physics").get("deep_ground_temp_c").isNull());
         assertEquals(rf.toJson(), RunFileReader.read(EXAMPLE).toJson(), "deterministic output");
