@@ -27,8 +27,8 @@ final class MaterialsCommand implements Callable<Integer> {
     @Parameters(arity = "0..1", paramLabel = "ID", description = "show one material in full")
     String id;
 
-    @Option(names = "--materials-file", paramLabel = "FILE", description = "add a user materials file (YAML or CSV)")
-    Path materialsFile;
+    @picocli.CommandLine.Mixin
+    SharedOptions.MaterialsFile materials = new SharedOptions.MaterialsFile();
 
     @Option(names = "--sources", description = "print every value's source under the table")
     boolean sources;
@@ -45,9 +45,9 @@ final class MaterialsCommand implements Callable<Integer> {
             out.flush();
             return 0;
         }
-        Map<String, Material> known = Materials.known(materialsFile);
+        Map<String, Material> known = Materials.known(materials.file);
         if (id != null) {
-            describe(out, Materials.lookup(id, materialsFile));
+            describe(out, Materials.lookup(id, materials.file));
             out.flush();
             return 0;
         }
