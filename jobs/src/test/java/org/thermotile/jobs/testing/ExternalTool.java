@@ -64,12 +64,24 @@ public final class ExternalTool {
      */
     public static Path require(String install, String... names) {
         Optional<Path> found = locate(names);
-        String what = String.join(" or ", names);
-        if (found.isEmpty() && System.getenv("CI") != null) {
+        present(found.isPresent(), String.join(" or ", names), install);
+        return found.get();
+    }
+
+    /**
+     * A script or data file a program runs (e.g. GDAL's COG validator, run with python3), or the
+     * calling test skipped (failed under CI) like {@link #require}.
+     */
+    public static Path requireFile(String install, Path file) {
+        present(Files.isRegularFile(file), file.toString(), install);
+        return file;
+    }
+
+    private static void present(boolean present, String what, String install) {
+        if (!present && System.getenv("CI") != null) {
             fail(what + " not found but CI is set: the CI script must install it (" + install + ")");
         }
-        Assumptions.assumeTrue(found.isPresent(), what + " not installed (" + install + "); this check is skipped");
-        return found.get();
+        Assumptions.assumeTrue(present, what + " not installed (" + install + "); this check is skipped");
     }
 
     /**

@@ -35,7 +35,7 @@ class CloudOptimizedGdalTest {
     @BeforeEach
     void needGdal() {
         org.thermotile.jobs.testing.ExternalTool.require("apt-get install gdal-bin", "gdalinfo");
-        org.thermotile.jobs.testing.ExternalTool.require("apt-get install python3-gdal", VALIDATOR);
+        org.thermotile.jobs.testing.ExternalTool.requireFile("apt-get install python3-gdal", Path.of(VALIDATOR));
     }
 
     static String validate(Path f) throws IOException {
