@@ -1,10 +1,9 @@
 package org.thermotile.jobs.city;
 
-import com.fasterxml.jackson.databind.JsonNode;
 import java.util.List;
 import org.thermotile.jobs.errors.UserInputException;
+import org.thermotile.jobs.config.RunBlocks;
 import org.thermotile.jobs.config.RunFile;
-import org.thermotile.model.geometry.GeometryFactors;
 import org.thermotile.model.geometry.Shadows;
 import org.thermotile.model.geometry.SkyViewFactor;
 
@@ -29,52 +28,26 @@ import org.thermotile.model.geometry.SkyViewFactor;
 record GeometryBlock(int directions, double searchRadiusM, double minSunElevationDeg, double canopyTransmissivity,
         double wallEmissivity, int haloCells) implements java.io.Serializable {
 
-    static final List<String> KEYS = List.of("sky_view_directions", "search_radius_m", "min_sun_elevation_deg",
-            "canopy_transmissivity", "wall_emissivity");
+    static final List<String> KEYS = RunBlocks.GEOMETRY;
 
-    /** The geometry settings of {@code run} (null without heights), with the halo for {@code tallestM}. */
+    /**
+     * The geometry settings of {@code run} (null without heights), with the halo for {@code tallestM}.
+     * The block itself is checked when the run file is read ({@link RunBlocks}); what needs the grid
+     * is checked here.
+     */
     static GeometryBlock of(RunFile run, double cellM, double tallestM) {
-        JsonNode n = run.reserved("geometry");
         if (run.inputs().heights() == null && run.inputs().buildings() == null) {
-            if (n != null && !n.isNull()) {
-                throw new UserInputException(run.source() + ": geometry settings need a heights raster or building "
-                        + "footprints. Fix: give inputs.heights or inputs.buildings, or drop the geometry block");
-            }
             return null;
         }
-        String where = run.source() + ": geometry";
-        if (n != null && !n.isNull()) {
-            if (!n.isObject()) {
-                throw new UserInputException(where + " must be a mapping of " + String.join(", ", KEYS));
-            }
-            n.fieldNames().forEachRemaining(k -> {
-                if (!KEYS.contains(k)) {
-                    throw new UserInputException(where + "." + k + ": unknown key; known keys: " + String.join(", ", KEYS));
-                }
-            });
-        } else {
-            n = com.fasterxml.jackson.databind.node.NullNode.getInstance();
-        }
-        int dirs = n.path("sky_view_directions").asInt(32);
-        double radius = n.path("search_radius_m").asDouble(100);
-        double minSun = n.path("min_sun_elevation_deg").asDouble(10);
-        double tau = n.path("canopy_transmissivity").asDouble(0.3);
-        double wallEps = n.path("wall_emissivity").asDouble(GeometryFactors.DEFAULT_WALL_EMISSIVITY);
-        if (dirs < 16 || dirs > 360) {
-            throw new UserInputException(where + ".sky_view_directions: " + dirs + " must be 16…360");
-        }
-        if (!(radius >= cellM && radius <= 2000)) {
-            throw new UserInputException(where + ".search_radius_m: " + radius + " must be between one cell ("
-                    + cellM + " m) and 2000 m");
-        }
-        if (!(minSun >= 1 && minSun <= 45)) {
-            throw new UserInputException(where + ".min_sun_elevation_deg: " + minSun + " must be 1…45°");
-        }
-        if (!(tau >= 0 && tau <= 1)) {
-            throw new UserInputException(where + ".canopy_transmissivity: " + tau + " must be 0…1");
-        }
-        if (!(wallEps > 0 && wallEps <= 1)) {
-            throw new UserInputException(where + ".wall_emissivity: " + wallEps + " must be above 0, at most 1");
+        RunBlocks.Geometry g = RunBlocks.geometryOf(run);
+        int dirs = g.skyViewDirections();
+        double radius = g.searchRadiusM();
+        double minSun = g.minSunElevationDeg();
+        double tau = g.canopyTransmissivity();
+        double wallEps = g.wallEmissivity();
+        if (!(radius >= cellM)) {
+            throw new UserInputException(run.source() + ": geometry.search_radius_m: " + radius + " must be between "
+                    + "one cell (" + cellM + " m) and " + RunBlocks.MAX_SEARCH_RADIUS_M + " m");
         }
         int halo = Math.max(new SkyViewFactor(cellM, radius, dirs).haloCells(),
                 Shadows.haloCells(tallestM, minSun, cellM));

@@ -1,14 +1,16 @@
 package org.thermotile.jobs.city;
 
-import com.fasterxml.jackson.databind.JsonNode;
-import java.util.ArrayList;
+import java.nio.file.Files;
+import java.nio.file.Path;
 import java.util.List;
 import org.thermotile.jobs.errors.UserInputException;
+import org.thermotile.jobs.config.RunBlocks;
 import org.thermotile.jobs.config.RunFile;
 import org.thermotile.jobs.hotspots.DistrictCells;
 import org.thermotile.jobs.hotspots.HotspotOptions;
+import org.thermotile.jobs.hotspots.ZoneHotspots;
+import org.thermotile.model.hotspot.AnalysisGrid;
 import org.thermotile.model.hotspot.DistanceBand;
-import org.thermotile.model.hotspot.ExcessBand;
 import org.thermotile.model.hotspot.FalseDiscovery;
 
 /**
@@ -32,115 +34,62 @@ import org.thermotile.model.hotspot.FalseDiscovery;
  */
 record HotspotsBlock(List<String> statistics, double distanceM, DistanceBand.Weights weights, double fdr,
         double cellSizeM, FalseDiscovery fdrMethod, double minExcessK, double minAreaM2, double minCoverage,
-        java.nio.file.Path zones, String zoneId) {
+        Path zones, String zoneId) {
 
-    static final List<String> KEYS = List.of("statistics", "cell_size_m", "distance_m", "weights", "fdr", "fdr_method",
-            "min_excess_k", "min_area_m2", "min_coverage", "zones", "zone_id");
+    static final List<String> KEYS = RunBlocks.HOTSPOTS;
 
-    /** The block of {@code run}, checked, or null when there is none. */
+    /**
+     * The block of {@code run}, with the hot-spot job's defaults for absent keys, or null when there
+     * is none. The block itself is checked when the run file is read ({@link RunBlocks}); what needs
+     * the simulation cell is checked here.
+     */
     static HotspotsBlock of(RunFile run, double cellM) {
-        JsonNode n = run.reserved("hotspots");
-        if (n == null || n.isNull()) {
+        RunBlocks.Hotspots h = RunBlocks.hotspotsOf(run);
+        if (h == null) {
             return null;
         }
         String where = run.source() + ": hotspots";
-        if (!n.isObject()) {
-            throw new UserInputException(where + " must be a mapping (" + String.join(", ", KEYS) + ")");
-        }
-        n.fieldNames().forEachRemaining(k -> {
-            if (!KEYS.contains(k)) {
-                throw new UserInputException(where + "." + k + ": unknown key; known keys: " + String.join(", ", KEYS));
-            }
-        });
-        List<String> stats = new ArrayList<>();
-        JsonNode s = n.path("statistics");
-        if (s.isMissingNode()) {
-            stats.add(HotspotOptions.DEFAULT_STATISTIC);
-        } else {
-            for (JsonNode v : s) {
-                String stat = v.asText();
-                boolean mapped = run.outputs().maps().stream().anyMatch(m -> m.key().equals(stat));
-                if (!mapped || stat.equals("peak_hour")) {
-                    throw new UserInputException(where + ".statistics: '" + stat + "' is not one of the run's maps "
-                            + "(peak_hour excepted). Fix: use one of " + run.outputs().maps().stream()
-                                    .map(RunFile.MapKind::key).filter(k -> !k.equals("peak_hour")).toList());
-                }
-                stats.add(stat);
-            }
-        }
-        double cell = n.path("cell_size_m").asDouble(Double.NaN);
-        if (n.has("cell_size_m") && !(cell >= cellM)) {
-            throw new UserInputException(where + ".cell_size_m: " + n.path("cell_size_m").asText() + " m is less than "
+        List<String> stats = h.statistics().isEmpty() ? List.of(HotspotOptions.DEFAULT_STATISTIC) : h.statistics();
+        double cell = h.cellSizeM();
+        if (!Double.isNaN(cell) && !(cell >= cellM)) {
+            throw new UserInputException(where + ".cell_size_m: " + num(cell) + " m is less than "
                     + "the simulation cell (" + cellM + " m). Fix: give a whole multiple of " + cellM + " m, e.g. "
                     + cellM * Math.max(1, Math.round(HotspotOptions.DEFAULT_CELL_SIZE_M / cellM)));
         }
         double minCell = Double.isNaN(cell) ? cellM * Math.max(1, Math.ceil(HotspotOptions.DEFAULT_CELL_SIZE_M / cellM
                 - 1e-9)) : cell;
-        double d = n.path("distance_m").asDouble(Double.NaN);
-        if (n.has("distance_m") && !(d >= minCell)) {
-            throw new UserInputException(where + ".distance_m: " + n.path("distance_m").asText() + " m is less than one "
+        double d = h.distanceM();
+        if (!Double.isNaN(d) && !(d >= minCell)) {
+            throw new UserInputException(where + ".distance_m: " + num(d) + " m is less than one "
                     + "analysis cell (" + minCell + " m). Fix: give at least " + minCell + " m, or leave distance_m out "
                     + "for the peak of Moran's I");
         }
-        String w = n.path("weights").asText("binary");
-        DistanceBand.Weights weights;
-        switch (w) {
-            case "binary" -> weights = DistanceBand.Weights.BINARY;
-            case "inverse_distance" -> weights = DistanceBand.Weights.INVERSE_DISTANCE;
-            default -> throw new UserInputException(where + ".weights: '" + w + "'; use binary or inverse_distance");
-        }
-        double fdr = n.path("fdr").asDouble(HotspotOptions.DEFAULT_FDR);
-        if (!(fdr > 0 && fdr <= HotspotOptions.MAX_FDR)) {
-            throw new UserInputException(where + ".fdr: " + fdr + " must be above 0 and at most " + HotspotOptions.MAX_FDR
-                    + ". Fix: give e.g. 0.05");
-        }
-        String fm = n.path("fdr_method").asText("bh");
-        FalseDiscovery method = FalseDiscovery.ofKey(fm);
-        if (method == null) {
-            throw new UserInputException(where + ".fdr_method: '" + fm + "'; use bh or by");
-        }
-        double ex = n.path("min_excess_k").asDouble(HotspotOptions.DEFAULT_MIN_EXCESS_K);
-        if (!(ex > 0 && ex <= ExcessBand.MAX_MIN_EXCESS_K)) {
-            throw new UserInputException(where + ".min_excess_k: " + n.path("min_excess_k").asText() + " must be above 0 "
-                    + "and at most " + ExcessBand.MAX_MIN_EXCESS_K + " K. Fix: give e.g. 1");
-        }
-        double area = n.path("min_area_m2").asDouble(HotspotOptions.DEFAULT_MIN_AREA_M2);
-        if (!(area >= 0) || !Double.isFinite(area)) {
-            throw new UserInputException(where + ".min_area_m2: " + n.path("min_area_m2").asText() + " must be a number "
-                    + "of m² at least 0. Fix: give e.g. 3200");
-        }
-        double cov = n.path("min_coverage").asDouble(org.thermotile.model.hotspot.AnalysisGrid.DEFAULT_MIN_COVERAGE);
-        if (n.has("min_coverage") && (!n.path("min_coverage").isNumber() || !(cov >= 0 && cov <= 1))) {
-            throw new UserInputException(where + ".min_coverage: " + n.path("min_coverage").asText() + " must be a "
-                    + "share from 0 to 1. Fix: give e.g. 0.5");
-        }
-        java.nio.file.Path zones = null;
-        if (n.has("zones")) {
-            String z = n.path("zones").asText("");
-            if (z.isBlank()) {
-                throw new UserInputException(where + ".zones: give a GeoJSON file of polygons, e.g. zones: blocks.geojson");
-            }
-            java.nio.file.Path base = java.nio.file.Path.of(run.source()).toAbsolutePath().getParent();
-            zones = base == null ? java.nio.file.Path.of(z) : base.resolve(z).normalize();
-            if (!java.nio.file.Files.isRegularFile(zones)) {
+        DistanceBand.Weights weights = h.weights() == null ? DistanceBand.Weights.BINARY : h.weights();
+        double fdr = Double.isNaN(h.fdr()) ? HotspotOptions.DEFAULT_FDR : h.fdr();
+        FalseDiscovery method = h.fdrMethod() == null ? FalseDiscovery.BH : h.fdrMethod();
+        double ex = Double.isNaN(h.minExcessK()) ? HotspotOptions.DEFAULT_MIN_EXCESS_K : h.minExcessK();
+        double area = Double.isNaN(h.minAreaM2()) ? HotspotOptions.DEFAULT_MIN_AREA_M2 : h.minAreaM2();
+        double cov = Double.isNaN(h.minCoverage()) ? AnalysisGrid.DEFAULT_MIN_COVERAGE : h.minCoverage();
+        Path zones = null;
+        if (h.zones() != null) {
+            Path base = Path.of(run.source()).toAbsolutePath().getParent();
+            zones = base == null ? Path.of(h.zones()) : base.resolve(h.zones()).normalize();
+            if (!Files.isRegularFile(zones)) {
                 throw new UserInputException(where + ".zones: " + zones + " not found. Fix: give the zones file's path "
                         + "(relative to the run file)");
             }
-            if (!weights.equals(DistanceBand.Weights.BINARY)) {
-                throw new UserInputException(where + ".weights: zones use binary weights over centroid distances. Fix: "
-                        + "drop weights, or run the zones with 'thermotile hotspots --zones'");
-            }
-        } else if (n.has("zone_id")) {
-            throw new UserInputException(where + ".zone_id without zones. Fix: add zones: FILE.geojson, or drop zone_id");
         }
-        String zoneId = n.path("zone_id").asText(null);
-        return new HotspotsBlock(List.copyOf(stats), d, weights, fdr, cell, method, ex, area, cov, zones, zoneId);
+        return new HotspotsBlock(List.copyOf(stats), d, weights, fdr, cell, method, ex, area, cov, zones, h.zoneId());
     }
 
     /** The zones of the block, or null when it names none. */
-    org.thermotile.jobs.hotspots.ZoneHotspots.ZoneOptions zoneOptions() {
-        return zones == null ? null : new org.thermotile.jobs.hotspots.ZoneHotspots.ZoneOptions(zones, zoneId,
-                "hotspots.zones");
+    ZoneHotspots.ZoneOptions zoneOptions() {
+        return zones == null ? null : new ZoneHotspots.ZoneOptions(zones, zoneId, "hotspots.zones");
+    }
+
+    /** A number as the user wrote it: 2 for 2.0. */
+    private static String num(double v) {
+        return v == Math.rint(v) && Math.abs(v) < 1e15 ? Long.toString((long) v) : Double.toString(v);
     }
 
     HotspotOptions options(String statistic, int tileSize) {

@@ -7,6 +7,7 @@ import org.thermotile.jobs.config.RunFile;
 import org.thermotile.jobs.config.RunFileReader;
 import org.thermotile.jobs.errors.UserInputException;
 import picocli.CommandLine.Command;
+import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Option;
 
 /** {@code thermotile demo}: the city job on the bundled demo city, Riverside Flats. */
@@ -17,8 +18,8 @@ final class DemoCommand implements Callable<Integer> {
     @Option(names = "--out", paramLabel = "DIR", description = "output folder (default: runs/riverside-demo, replaced)")
     Path out;
 
-    @Option(names = "--quiet", description = "no progress line")
-    boolean quiet;
+    @Mixin
+    SharedOptions.Quiet quiet = new SharedOptions.Quiet();
 
     @Override
     public Integer call() {
@@ -29,7 +30,7 @@ final class DemoCommand implements Callable<Integer> {
         }
         RunFile run = RunFileReader.read(runFile);
         Path dir = out != null ? out : Path.of("runs", "riverside-demo");
-        RunCommand.execute(run, dir, null, 0, out == null, quiet, false, false, System.out);
+        RunCommand.execute(run, dir, null, 0, out == null, quiet.quiet, false, false, System.out);
         return 0;
     }
 

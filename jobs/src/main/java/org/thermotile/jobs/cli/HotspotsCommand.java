@@ -14,6 +14,7 @@ import org.thermotile.model.hotspot.DistanceBand.Weights;
 import org.thermotile.model.hotspot.ExcessBand;
 import org.thermotile.model.hotspot.FalseDiscovery;
 import picocli.CommandLine.Command;
+import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
 
@@ -45,12 +46,12 @@ public final class HotspotsCommand implements Callable<Integer> {
                     + "areas comparable with the run's) or the scenario's own (scenario) (default: ${DEFAULT-VALUE})")
     String reference;
 
-    @Option(names = "--cell-size", paramLabel = "METRES",
+    @Option(names = {"--cell-size-m", "--cell-size"}, paramLabel = "METRES",
             description = "analysis cell, a whole multiple of the simulation cell (default: 40 m rounded up to a "
                     + "multiple of the simulation cell)")
     Double cellSizeM;
 
-    @Option(names = "--distance", paramLabel = "METRES",
+    @Option(names = {"--distance-m", "--distance"}, paramLabel = "METRES",
             description = "distance band D in metres: neighbours whose centres lie within D, at least one analysis "
                     + "cell (default: the distance of the largest Moran's I z-score)")
     Double distanceM;
@@ -68,11 +69,11 @@ public final class HotspotsCommand implements Callable<Integer> {
                     + "dependence) (default: ${DEFAULT-VALUE})")
     String fdrMethod;
 
-    @Option(names = "--min-excess", paramLabel = "KELVIN", defaultValue = "1",
+    @Option(names = {"--min-excess-k", "--min-excess"}, paramLabel = "KELVIN", defaultValue = "1",
             description = "smallest excess over the city's median that counts, in K (default: ${DEFAULT-VALUE})")
     double minExcessK;
 
-    @Option(names = "--min-area", paramLabel = "M2", defaultValue = "3200",
+    @Option(names = {"--min-area-m2", "--min-area"}, paramLabel = "M2", defaultValue = "3200",
             description = "smallest hot or cold area kept, in m² (default: ${DEFAULT-VALUE})")
     double minAreaM2;
 
@@ -94,16 +95,11 @@ public final class HotspotsCommand implements Callable<Integer> {
             description = "cells per tile edge of the parallel pass; results do not depend on it (default: ${DEFAULT-VALUE})")
     int tileSize;
 
-    @Option(names = "--master", paramLabel = "URL",
-            description = "Spark master, e.g. spark://host:7077 (default: embedded)")
-    String master;
+    @Mixin
+    SharedOptions.Spark sparkOptions = new SharedOptions.Spark();
 
-    @Option(names = "--threads", paramLabel = "N", defaultValue = "0",
-            description = "embedded Spark threads (default: all cores)")
-    int threads;
-
-    @Option(names = "--replace", description = "overwrite an existing hotspot folder")
-    boolean replace;
+    @Mixin
+    SharedOptions.Replace replace = new SharedOptions.Replace();
 
     /** The options as given. */
     HotspotOptions options() {
@@ -120,7 +116,7 @@ public final class HotspotsCommand implements Callable<Integer> {
             throw new UserInputException("--fdr-method '" + fdrMethod + "' is unknown. Fix: give bh or by");
         }
         return new HotspotOptions(statistic, scenario, distanceM == null ? Double.NaN : distanceM, w, fdr, tileSize,
-                replace, org.thermotile.jobs.hotspots.DistrictCells.GEOJSON, ref,
+                replace.replace, org.thermotile.jobs.hotspots.DistrictCells.GEOJSON, ref,
                 cellSizeM == null ? Double.NaN : cellSizeM, fm, minExcessK, minAreaM2, minCoverage);
     }
 
@@ -148,7 +144,7 @@ public final class HotspotsCommand implements Callable<Integer> {
         ZoneHotspots.ZoneOptions zo = zoneOptions();
         if (zo != null) {
             ZoneHotspots.Prepared zp = ZoneHotspots.prepare(runDir, opt, zo);   // every check before Spark starts
-            SparkSession spark = SparkSessions.get(master, threads);
+            SparkSession spark = SparkSessions.get(sparkOptions.master, sparkOptions.threads);
             try {
                 printZones(ZoneHotspots.run(spark, zp), System.out);
             } finally {
@@ -157,7 +153,7 @@ public final class HotspotsCommand implements Callable<Integer> {
             return 0;
         }
         Hotspots.Prepared p = Hotspots.prepare(runDir, opt);     // every check before Spark starts
-        SparkSession spark = SparkSessions.get(master, threads);
+        SparkSession spark = SparkSessions.get(sparkOptions.master, sparkOptions.threads);
         try {
             print(Hotspots.run(spark, p), System.out);
         } finally {

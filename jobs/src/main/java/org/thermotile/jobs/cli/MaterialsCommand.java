@@ -9,6 +9,7 @@ import java.util.concurrent.Callable;
 import org.thermotile.model.constants.Physical;
 import org.thermotile.model.materials.Layer;
 import org.thermotile.model.materials.Material;
+import org.thermotile.model.materials.MaterialProperty;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Model.CommandSpec;
 import picocli.CommandLine.Option;
@@ -26,18 +27,27 @@ final class MaterialsCommand implements Callable<Integer> {
     @Parameters(arity = "0..1", paramLabel = "ID", description = "show one material in full")
     String id;
 
-    @Option(names = "--materials-file", paramLabel = "FILE", description = "add a user materials file (YAML or CSV)")
-    Path materialsFile;
+    @picocli.CommandLine.Mixin
+    SharedOptions.MaterialsFile materials = new SharedOptions.MaterialsFile();
 
     @Option(names = "--sources", description = "print every value's source under the table")
     boolean sources;
 
+    @Option(names = "--properties", description = "list the material properties: key, unit, valid range and "
+            + "its source (what class tables, scenarios, --set and materials files accept)")
+    boolean properties;
+
     @Override
     public Integer call() {
         PrintWriter out = spec.commandLine().getOut();
-        Map<String, Material> known = Materials.known(materialsFile);
+        if (properties) {
+            properties(out);
+            out.flush();
+            return 0;
+        }
+        Map<String, Material> known = Materials.known(materials.file);
         if (id != null) {
-            describe(out, Materials.lookup(id, materialsFile));
+            describe(out, Materials.lookup(id, materials.file));
             out.flush();
             return 0;
         }
@@ -62,6 +72,19 @@ final class MaterialsCommand implements Callable<Integer> {
         }
         out.flush();
         return 0;
+    }
+
+    /** The property schema, one property a line, then each range's source. */
+    static void properties(PrintWriter out) {
+        out.printf(Locale.ROOT, "%-24s %-10s %-44s %s%n", "key", "unit", "valid range", "what it is");
+        for (MaterialProperty p : MaterialProperty.values()) {
+            out.printf(Locale.ROOT, "%-24s %-10s %-44s %s%n", p.key(), p.unit(), p.rangeText(), p.description());
+        }
+        out.println();
+        out.println("Sources of the ranges:");
+        for (MaterialProperty p : MaterialProperty.values()) {
+            out.println("  " + p.key() + ": " + p.source());
+        }
     }
 
     static String bottom(Material m) {

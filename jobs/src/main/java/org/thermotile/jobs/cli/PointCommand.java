@@ -53,8 +53,8 @@ final class PointCommand implements Callable<Integer> {
             description = "override a property, e.g. --set albedo=0.65 --set layers[0].thickness=0.004")
     List<String> overrides = new ArrayList<>();
 
-    @Option(names = "--materials-file", paramLabel = "FILE", description = "extra materials (YAML or CSV)")
-    Path materialsFile;
+    @picocli.CommandLine.Mixin
+    SharedOptions.MaterialsFile materials = new SharedOptions.MaterialsFile();
 
     @Option(names = "--lat", required = true, paramLabel = "DEG", description = "latitude, north positive")
     double latitude;
@@ -62,13 +62,13 @@ final class PointCommand implements Callable<Integer> {
     @Option(names = "--lon", required = true, paramLabel = "DEG", description = "longitude, east positive")
     double longitude;
 
-    @Option(names = "--elevation", paramLabel = "M", defaultValue = "0", description = "elevation (default ${DEFAULT-VALUE} m)")
+    @Option(names = {"--elevation-m", "--elevation"}, paramLabel = "M", defaultValue = "0", description = "elevation (default ${DEFAULT-VALUE} m)")
     double elevationM;
 
     @Option(names = "--weather", paramLabel = "CSV", description = "hourly weather file (see README); without it a synthetic clear-sky period is used")
     Path weatherFile;
 
-    @Option(names = "--fill-gaps", paramLabel = "HOURS", defaultValue = "0",
+    @Option(names = {"--fill-gaps-max-hours", "--fill-gaps"}, paramLabel = "HOURS", defaultValue = "0",
             description = "fill weather gaps of up to this many hours by linear interpolation (default: gaps are errors)")
     int fillGapsHours;
 
@@ -78,16 +78,16 @@ final class PointCommand implements Callable<Integer> {
     @Option(names = "--days", paramLabel = "N", defaultValue = "3", description = "reported days for synthetic weather (default ${DEFAULT-VALUE})")
     int days;
 
-    @Option(names = "--t-min", paramLabel = "°C", defaultValue = "20", description = "synthetic daily minimum air temperature (default ${DEFAULT-VALUE})")
+    @Option(names = {"--t-min-c", "--t-min"}, paramLabel = "°C", defaultValue = "20", description = "synthetic daily minimum air temperature (default ${DEFAULT-VALUE})")
     double tMinC;
 
-    @Option(names = "--t-max", paramLabel = "°C", defaultValue = "33", description = "synthetic daily maximum air temperature (default ${DEFAULT-VALUE})")
+    @Option(names = {"--t-max-c", "--t-max"}, paramLabel = "°C", defaultValue = "33", description = "synthetic daily maximum air temperature (default ${DEFAULT-VALUE})")
     double tMaxC;
 
-    @Option(names = "--rh", paramLabel = "%", defaultValue = "45", description = "synthetic relative humidity (default ${DEFAULT-VALUE})")
+    @Option(names = {"--rel-humidity-pct", "--rh"}, paramLabel = "%", defaultValue = "45", description = "synthetic relative humidity (default ${DEFAULT-VALUE})")
     double rhPct;
 
-    @Option(names = "--wind", paramLabel = "M/S", defaultValue = "2", description = "synthetic wind speed (default ${DEFAULT-VALUE})")
+    @Option(names = {"--wind-ms", "--wind"}, paramLabel = "M/S", defaultValue = "2", description = "synthetic wind speed (default ${DEFAULT-VALUE})")
     double windMs;
 
     @Option(names = "--utc-offset", paramLabel = "±HH:MM", defaultValue = "+00:00", description = "synthetic local clock offset from UTC (default ${DEFAULT-VALUE})")
@@ -96,17 +96,17 @@ final class PointCommand implements Callable<Integer> {
     @Option(names = "--spin-up-days", paramLabel = "N", defaultValue = "2", description = "days simulated before reporting starts (default ${DEFAULT-VALUE})")
     int spinUpDays;
 
-    @Option(names = "--step-minutes", paramLabel = "MIN", defaultValue = "10", description = "sub-step, dividing 60 (default ${DEFAULT-VALUE})")
+    @Option(names = {"--timestep-minutes", "--step-minutes"}, paramLabel = "MIN", defaultValue = "10", description = "sub-step, dividing 60 (default ${DEFAULT-VALUE})")
     int stepMinutes;
 
     @Option(names = "--convection", paramLabel = "MODEL", defaultValue = "mcadams",
             description = "'mcadams' (wind correlation) or a fixed coefficient in W/(m² K) (default ${DEFAULT-VALUE})")
     String convection;
 
-    @Option(names = "--deep-ground", paramLabel = "°C", description = "deep-ground temperature (default: mean air temperature)")
+    @Option(names = {"--deep-ground-temp-c", "--deep-ground"}, paramLabel = "°C", description = "deep-ground temperature (default: mean air temperature)")
     Double deepGroundC;
 
-    @Option(names = "--threshold", paramLabel = "°C", defaultValue = "45", description = "threshold for hours and degree-hours above (default ${DEFAULT-VALUE})")
+    @Option(names = {"--threshold-c", "--threshold"}, paramLabel = "°C", defaultValue = "45", description = "threshold for hours and degree-hours above (default ${DEFAULT-VALUE})")
     double thresholdC;
 
     @Option(names = {"-o", "--out"}, paramLabel = "CSV", description = "write the hourly CSV here (default: standard output)")
@@ -114,7 +114,7 @@ final class PointCommand implements Callable<Integer> {
 
     @Override
     public Integer call() throws IOException {
-        Material material = Materials.lookup(materialId, materialsFile);
+        Material material = Materials.lookup(materialId, materials.file);
         if (!overrides.isEmpty()) {
             material = MaterialOverrides.applyAll(material, overrides, "--set");
         }

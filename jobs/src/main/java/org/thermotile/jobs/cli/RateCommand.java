@@ -29,9 +29,8 @@ final class RateCommand implements Callable<Integer> {
     @Option(names = "--emittance", paramLabel = "E", description = "thermal emittance, 0…1")
     Double emittance;
 
-    @Option(names = "--materials-file", paramLabel = "FILE",
-            description = "extra materials (YAML or CSV) to look the id up in")
-    java.nio.file.Path materialsFile;
+    @picocli.CommandLine.Mixin
+    SharedOptions.MaterialsFile materials = new SharedOptions.MaterialsFile();
 
     @Override
     public Integer call() {
@@ -42,7 +41,7 @@ final class RateCommand implements Callable<Integer> {
             if (reflectance != null || emittance != null) {
                 throw new UserInputException("give either --material or --reflectance with --emittance, not both");
             }
-            Material m = Materials.lookup(materialId, materialsFile);
+            Material m = Materials.lookup(materialId, materials.file);
             r = m.albedo();
             e = m.emissivity();
             label = m.id() + " (" + m.name() + ")";

@@ -16,6 +16,7 @@ import org.thermotile.jobs.config.RunFileReader;
 import org.thermotile.jobs.observe.ObservationSet;
 import org.thermotile.jobs.observe.Observe;
 import picocli.CommandLine.Command;
+import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
 
@@ -32,19 +33,14 @@ final class RunCommand implements Callable<Integer> {
     @Option(names = "--out", paramLabel = "DIR", description = "output folder (default: runs/<run name>)")
     Path out;
 
-    @Option(names = "--master", paramLabel = "URL",
-            description = "Spark master, e.g. spark://host:7077 (default: embedded, all cores)")
-    String master;
+    @Mixin
+    SharedOptions.Spark spark = new SharedOptions.Spark();
 
-    @Option(names = "--threads", paramLabel = "N", defaultValue = "0",
-            description = "embedded Spark threads (default: all cores)")
-    int threads;
+    @Mixin
+    SharedOptions.Replace replace = new SharedOptions.Replace();
 
-    @Option(names = "--replace", description = "overwrite an existing output folder")
-    boolean replace;
-
-    @Option(names = "--quiet", description = "no progress line")
-    boolean quiet;
+    @Mixin
+    SharedOptions.Quiet quiet = new SharedOptions.Quiet();
 
     @Option(names = "--confirm-sweep", description = "run a sweep larger than its max_scenarios")
     boolean confirmSweep;
@@ -57,7 +53,8 @@ final class RunCommand implements Callable<Integer> {
     public Integer call() {
         RunFile run = RunFileReader.read(runFile);
         Path dir = out != null ? out : Path.of("runs", run.name());
-        execute(run, dir, master, threads, replace, quiet, confirmSweep, resume, System.out, runFile.toString());
+        execute(run, dir, spark.master, spark.threads, replace.replace, quiet.quiet, confirmSweep, resume, System.out,
+                runFile.toString());
         return 0;
     }
 

@@ -7,6 +7,7 @@ import java.util.Map;
 import java.util.Objects;
 import java.util.Optional;
 import java.util.TreeMap;
+import org.thermotile.model.materials.MaterialProperty;
 
 /**
  * A land-cover class table: integer raster codes → library material ids, with optional
@@ -31,19 +32,11 @@ public record ClassTable(String name, String source, String reference, String fa
     public static final int MAX_CODE = 65_535;
 
     /**
-     * Property overrides a class may carry, each with its valid range, in the units of the
-     * material library: albedo α [0…1], thermal emissivity ε [0…1], moisture availability β
-     * [0…1], anthropogenic heat Q_F [W m⁻²] 0…2000 (the bounds the material record enforces).
+     * Property overrides a class may carry, in a fixed order for messages: the surface properties
+     * of the material schema ({@link MaterialProperty#SURFACE}), each with the valid range
+     * {@link MaterialProperty} gives (the one the material record enforces).
      */
-    public static final Map<String, double[]> OVERRIDE_RANGES = Map.of(
-            "albedo", new double[] {0, 1},
-            "emissivity", new double[] {0, 1},
-            "moisture_availability", new double[] {0, 1},
-            "anthropogenic_heat", new double[] {0, 2000});
-
-    /** Override keys in a fixed order, for messages. */
-    public static final List<String> OVERRIDE_KEYS = List.of("albedo", "emissivity",
-            "moisture_availability", "anthropogenic_heat");
+    public static final List<String> OVERRIDE_KEYS = MaterialProperty.keys(MaterialProperty.SURFACE);
 
     public ClassTable {
         Objects.requireNonNull(name, "name");

@@ -18,6 +18,7 @@ import java.util.Map;
 import java.util.Set;
 import java.util.regex.Pattern;
 import org.thermotile.jobs.config.ClassTable.ClassEntry;
+import org.thermotile.model.materials.MaterialProperty;
 
 /**
  * Reads land-cover class tables: the built-in ones ({@link #BUILT_IN}, resources under
@@ -382,15 +383,16 @@ public final class ClassTableReader {
     }
 
     private static boolean checkOverride(Reporter at, String place, String key, double v) {
-        double[] range = ClassTable.OVERRIDE_RANGES.get(key);
-        if (range == null) {
+        MaterialProperty p = MaterialProperty.byKey(key).filter(MaterialProperty.SURFACE::contains).orElse(null);
+        if (p == null) {
             String hint = Suggest.didYouMean(key, ClassTable.OVERRIDE_KEYS);
             at.at(place, "'" + key + "' is not a property a class can override" + (hint.isEmpty()
                     ? "; overridable: " + String.join(", ", ClassTable.OVERRIDE_KEYS) : hint));
             return false;
         }
-        if (!(v >= range[0] && v <= range[1])) {
-            at.at(place, key + " = " + v + " is outside " + range[0] + "…" + range[1]);
+        String problem = p.problem(v);
+        if (problem != null) {
+            at.at(place, problem);
             return false;
         }
         return true;

@@ -43,7 +43,10 @@ import org.thermotile.jobs.config.RunFile.MapKind;
  * none; {@code tiling.tile_size} {@value #DEFAULT_TILE_SIZE}.
  */
 public final class RunFileReader {
-    /** Top-level sections kept as raw trees for later features; accepted without checks. */
+    /**
+     * Top-level sections kept as raw trees in {@link RunFile#reserved()}, each checked here by its own
+     * reader ({@link ScenariosReader}; {@link RunBlocks} for geometry and hotspots).
+     */
     public static final List<String> RESERVED_KEYS = List.of("scenarios", "sweep", "hotspots", "geometry");
     /** Named wind correlations for the convective coefficient. */
     public static final List<String> CONVECTION_MODELS = List.of("mcadams");
@@ -194,6 +197,8 @@ public final class RunFileReader {
                 reserved.put(k, top.raw(k));
             }
         }
+        RunBlocks.checkGeometry(doc, top.section("geometry", false, ""), inputs, top.raw("geometry"));
+        RunBlocks.checkHotspots(top.section("hotspots", false, ""), outputs);
         ScenariosReader.Result sc = ScenariosReader.read(doc, top.raw("scenarios"), top.raw("sweep"));
         if (doc.hasProblems()) {
             return null;

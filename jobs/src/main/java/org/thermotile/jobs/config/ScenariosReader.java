@@ -9,6 +9,7 @@ import java.util.List;
 import java.util.Locale;
 import java.util.Map;
 import java.util.Set;
+import org.thermotile.model.materials.MaterialProperty;
 
 /**
  * Reads the run file's {@code scenarios:} list and {@code sweep:} block into {@link Scenario}s,
@@ -45,8 +46,11 @@ final class ScenariosReader {
             "aged_albedo", "cost_per_m2");
     static final List<String> TARGET_KEYS = List.of("materials", "codes", "districts", "roofs_only");
     static final List<String> SWEEP_KEYS = List.of("name", "max_scenarios", "change", "axes", "periods");
-    static final List<String> SET_SCALARS = List.of("albedo", "emissivity", "moisture_availability",
-            "anthropogenic_heat");
+    static final List<String> SET_SCALARS = MaterialProperty.keys(MaterialProperty.SURFACE);
+    /** What {@code set} may change: the surface properties and the layer properties of the schema. */
+    static final List<MaterialProperty> SET_PROPERTIES = List.of(MaterialProperty.ALBEDO, MaterialProperty.EMISSIVITY,
+            MaterialProperty.MOISTURE_AVAILABILITY, MaterialProperty.ANTHROPOGENIC_HEAT,
+            MaterialProperty.LAYER_THICKNESS, MaterialProperty.LAYER_CONDUCTIVITY, MaterialProperty.LAYER_HEAT_CAPACITY);
     static final int DEFAULT_MAX_SCENARIOS = 50;
 
     /** Parsed scenarios plus the sweep's limit. */
@@ -116,8 +120,9 @@ final class ScenariosReader {
                 Scenario.Change ch = change(doc, c, Map.of());
                 Double a = c.number("aged_albedo", false, "an albedo 0…1, e.g. 0.6");
                 if (a != null) {
-                    if (!(a >= 0 && a < 1)) {
-                        doc.at(c.child("aged_albedo"), "albedo " + a + " is outside 0…1 (below 1)");
+                    String problem = MaterialProperty.ALBEDO.problem(a);
+                    if (problem != null) {
+                        doc.at(c.child("aged_albedo"), problem);
                     }
                     aged = a;
                 }
@@ -253,35 +258,15 @@ final class ScenariosReader {
     }
 
     static void checkProperty(YamlDoc doc, String path, String key, double v) {
-        switch (key) {
-            case "albedo" -> {
-                if (!(v >= 0 && v < 1)) {
-                    doc.at(path, "albedo " + v + " is impossible; give a solar reflectance 0…1 (below 1)");
-                }
-            }
-            case "emissivity" -> {
-                if (!(v > 0 && v <= 1)) {
-                    doc.at(path, "emissivity " + v + " is impossible; give a thermal emittance above 0, at most 1");
-                }
-            }
-            case "moisture_availability" -> {
-                if (!(v >= 0 && v <= 1)) {
-                    doc.at(path, "moisture availability " + v + " is outside 0…1");
-                }
-            }
-            case "anthropogenic_heat" -> {
-                if (!(v >= 0 && v <= 2000)) {
-                    doc.at(path, "anthropogenic heat " + v + " W/m² is outside 0…2000");
-                }
-            }
-            default -> {
-                if (!key.matches("layers\\[\\d+]\\.(thickness|conductivity|heat_capacity)")) {
-                    doc.at(path, "unknown property '" + key + "'" + Suggest.didYouMean(key, SET_SCALARS)
-                            + "; use " + String.join(", ", SET_SCALARS) + " or layers[i].thickness|conductivity|heat_capacity");
-                } else if (!(v > 0)) {
-                    doc.at(path, key + " = " + v + " must be > 0");
-                }
-            }
+        MaterialProperty p = MaterialProperty.byKey(key).filter(SET_PROPERTIES::contains).orElse(null);
+        if (p == null || (p.isLayerProperty() && !key.matches("layers\\[\\d+]\\..*"))) {
+            doc.at(path, "unknown property '" + key + "'" + Suggest.didYouMean(key, SET_SCALARS)
+                    + "; use " + String.join(", ", SET_SCALARS) + " or layers[i].thickness|conductivity|heat_capacity");
+            return;
+        }
+        String problem = p.problem(v);
+        if (problem != null) {
+            doc.at(path, problem);
         }
     }
 

@@ -48,7 +48,7 @@ public record HotspotOptions(String statistic, String scenario, double distanceM
     public static final double DEFAULT_MIN_AREA_M2 = 3200;
 
     /** Largest FDR level accepted (our choice). */
-    public static final double MAX_FDR = 0.20;
+    public static final double MAX_FDR = org.thermotile.jobs.config.RunBlocks.MAX_FDR;
 
     /** The options of the earlier form, with the new settings at their defaults. */
     public HotspotOptions(String statistic, String scenario, double distanceM, Weights weights, double fdr,

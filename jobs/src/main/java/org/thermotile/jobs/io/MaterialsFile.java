@@ -27,6 +27,7 @@ import org.thermotile.model.materials.BottomBoundary;
 import org.thermotile.model.materials.Layer;
 import org.thermotile.model.materials.Material;
 import org.thermotile.model.materials.MaterialLibrary;
+import org.thermotile.model.materials.MaterialProperty;
 import org.thermotile.model.materials.NameSuggestions;
 
 /**
@@ -429,6 +430,9 @@ public final class MaterialsFile {
             double k = requiredNumber(l, "conductivity", e, id, place, "[W/(m K)], e.g. conductivity: 0.75");
             double c = requiredNumber(l, "heat_capacity", e, id, place,
                     "volumetric ρc [J/(m³ K)], e.g. heat_capacity: 1.94e6");
+            checkRange(MaterialProperty.LAYER_THICKNESS, d, e, id, place + "thickness_m");
+            checkRange(MaterialProperty.LAYER_CONDUCTIVITY, k, e, id, place + "conductivity");
+            checkRange(MaterialProperty.LAYER_HEAT_CAPACITY, c, e, id, place + "heat_capacity");
             try {
                 out.add(new Layer(name == null ? "layer " + i : name, d, k, c));
             } catch (IllegalArgumentException ex) {
@@ -469,6 +473,9 @@ public final class MaterialsFile {
         }
         boolean sameKind = base != null && base.kind() == kind;
         double tempC = optionalNumber(node, "temperature_c", e, id, "bottom.");
+        if (!Double.isNaN(tempC)) {
+            checkRange(MaterialProperty.BOTTOM_TEMPERATURE_C, tempC, e, id, "bottom.temperature_c");
+        }
         double tempK = !Double.isNaN(tempC) ? tempC + Physical.ZERO_CELSIUS_K
                 : sameKind ? base.temperatureK() : Double.NaN;
         double film = optionalNumber(node, "film_resistance", e, id, "bottom.");
@@ -531,6 +538,7 @@ public final class MaterialsFile {
         if (Double.isNaN(v)) {
             return fallback;
         }
+        MaterialProperty.byKey(key).ifPresent(p -> checkRange(p, v, e, id, key));
         sources.put(key, given);
         return v;
     }
@@ -569,6 +577,15 @@ public final class MaterialsFile {
                     + " is not a finite number");
         }
         return d;
+    }
+
+    /** The schema's one out-of-range message, placed at the entry and key. */
+    private static void checkRange(MaterialProperty p, double v, Entry e, String id, String keyPath) {
+        String problem = p.problem(v);
+        if (problem != null) {
+            throw new IllegalArgumentException(e.where(id) + ", key '" + keyPath + "': " + problem
+                    + "; fix the value in the file");
+        }
     }
 
     private static void requireGiven(double v, String key, String hint, String where) {

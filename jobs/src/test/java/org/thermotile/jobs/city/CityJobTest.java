@@ -253,6 +253,7 @@ class CityJobTest {
     void everyMapIsAValidCogWithDescribedBands() throws Exception {
         Gdal.require("gdalinfo");
         String validator = "/usr/lib/python3/dist-packages/osgeo_utils/samples/validate_cloud_optimized_geotiff.py";
+        org.thermotile.jobs.testing.ExternalTool.requireFile("apt-get install python3-gdal", Path.of(validator));
         List<Path> maps;
         try (Stream<Path> s = Files.walk(out256)) {
             maps = s.filter(p -> p.toString().endsWith(".tif")).sorted().toList();

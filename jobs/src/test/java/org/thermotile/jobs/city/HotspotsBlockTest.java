@@ -26,7 +26,7 @@ class HotspotsBlockTest {
     }
 
     String error(String yaml) {
-        return assertThrows(UserInputException.class, () -> block(yaml)).getMessage();
+        return assertThrows(RuntimeException.class, () -> block(yaml)).getMessage();
     }
 
     @Test

@@ -274,8 +274,8 @@ class ScenarioTest {
         assertTrue(e instanceof RunFileException, e.toString());
         String m = e.getMessage();
         assertTrue(m.contains("adoption 1.5"), m);
-        assertTrue(m.contains("albedo 1.2"), m);
-        assertTrue(m.contains("emissivity 0"), m);
+        assertTrue(m.contains("albedo = 1.2 is outside its valid range"), m);
+        assertTrue(m.contains("emissivity = 0 is outside its valid range"), m);
         assertTrue(m.contains("'a' is used twice"), m);
     }
 

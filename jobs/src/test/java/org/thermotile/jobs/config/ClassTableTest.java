@@ -201,7 +201,7 @@ class ClassTableTest {
                 "classes[1].code: code 1 is given twice (first at classes[0])",
                 "classes[2].code: 70000 is outside 0…65535",
                 "classes[3].overrides.albdo: 'albdo' is not a property a class can override; did you mean 'albedo'?",
-                "classes[4].overrides.albedo: albedo = 1.5 is outside 0.0…1.0",
+                "classes[4].overrides.albedo: albedo = 1.5 is outside its valid range 0 ≤ albedo ≤ 1",
                 "classes[5]: required key 'material' is missing",
                 "classes[6].code: expected a number, got the text '6'");
         for (String p : ps) {

@@ -148,7 +148,7 @@ class RunFileReaderTest {
     @Test
     void reservedSectionsAreKeptRaw() {
         RunFile rf = parse(MINIMAL + "scenarios:\n  - {name: cool-roofs, changes: [{targets: {codes: [1]}, set: {albedo: 0.7}}]}\n"
-                + "hotspots: {statistic: peak}\n");
+                + "hotspots: {statistics: [peak]}\n");
         assertEquals(2, rf.reserved().size());
         JsonNode sc = rf.reserved("scenarios");
         assertEquals("cool-roofs", sc.get(0).get("name").asText());

@@ -183,8 +183,8 @@ class DemoCityGeneratorTest {
      */
     @Test
     void gdalSeesTheGridCrsAndNoData() throws Exception {
+        org.thermotile.jobs.testing.ExternalTool.require("apt-get install gdal-bin", "gdalinfo");
         JsonNode lc = gdalinfo(DEMO.resolve("landcover.tif"));
-        assumeTrue(lc != null, "gdalinfo not installed");
         JsonNode ht = gdalinfo(DEMO.resolve("heights.tif"));
         for (JsonNode info : List.of(lc, ht)) {
             assertEquals(List.of(W, H), List.of(info.get("size").get(0).asInt(), info.get("size").get(1).asInt()));
@@ -402,19 +402,12 @@ class DemoCityGeneratorTest {
 
     /** {@code gdalinfo -json} of a file, or null when gdalinfo cannot be run. */
     static JsonNode gdalinfo(Path file) throws Exception {
-        Process p;
-        try {
-            p = new ProcessBuilder("gdalinfo", "-json", file.toAbsolutePath().toString())
-                    .redirectError(ProcessBuilder.Redirect.DISCARD).start();
-        } catch (IOException e) {
+        if (org.thermotile.jobs.testing.ExternalTool.locate("gdalinfo").isEmpty()) {
             return null;
         }
-        byte[] out = p.getInputStream().readAllBytes();
-        if (!p.waitFor(60, TimeUnit.SECONDS)) {
-            p.destroy();
-            fail("gdalinfo did not finish");
-        }
-        assertEquals(0, p.exitValue(), () -> "gdalinfo failed on " + file);
-        return new ObjectMapper().readTree(out);
+        org.thermotile.jobs.testing.ExternalTool.Result r = org.thermotile.jobs.testing.ExternalTool.run(
+                List.of("gdalinfo", "-json", file.toAbsolutePath().toString()));
+        assertEquals(0, r.exitCode(), () -> "gdalinfo failed on " + file + ": " + r.stderr());
+        return new ObjectMapper().readTree(r.stdout());
     }
 }

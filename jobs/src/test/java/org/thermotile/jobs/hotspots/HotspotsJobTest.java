@@ -374,26 +374,15 @@ class HotspotsJobTest {
     // ---- GDAL (Debian gdal-bin): runs in CI, skipped elsewhere when missing ----
 
     static boolean gdal(String tool) {
-        boolean present;
-        try {
-            Process p = new ProcessBuilder(tool, "--version").redirectErrorStream(true).start();
-            present = p.waitFor(20, TimeUnit.SECONDS) && p.exitValue() == 0;
-        } catch (IOException | InterruptedException e) {
-            present = false;
-        }
-        if (!present && System.getenv("CI") != null) {
-            fail(tool + " not found but CI is set: the CI script must install Debian gdal-bin");
-        }
-        assumeTrue(present, tool + " not installed (apt-get install gdal-bin); GDAL checks skipped");
+        org.thermotile.jobs.testing.ExternalTool.require("apt-get install gdal-bin", tool);
         return true;
     }
 
     static String exec(Path workDir, String... cmd) throws IOException, InterruptedException {
-        Process p = new ProcessBuilder(cmd).directory(workDir.toFile()).redirectErrorStream(true).start();
-        String out = new String(p.getInputStream().readAllBytes(), StandardCharsets.UTF_8);
-        assertTrue(p.waitFor(60, TimeUnit.SECONDS), "timed out: " + String.join(" ", cmd));
-        assertEquals(0, p.exitValue(), String.join(" ", cmd) + "\n" + out);
-        return out;
+        org.thermotile.jobs.testing.ExternalTool.Result r = org.thermotile.jobs.testing.ExternalTool.run(List.of(cmd),
+                workDir, java.util.Map.of(), org.thermotile.jobs.testing.ExternalTool.TIMEOUT, null);
+        assertEquals(0, r.exitCode(), String.join(" ", cmd) + "\n" + r.all());
+        return r.all();
     }
 
     /** ogrinfo reads both GeoJSON files: feature count, CRS, and GDAL's own polygon areas. */

@@ -275,11 +275,9 @@ class IngestTest {
 
     /** Runs a command with {@code input} on its standard input; returns its standard output. */
     static String pipe(List<String> command, String input) throws Exception {
-        Process p = new ProcessBuilder(command).redirectErrorStream(true).start();
-        p.getOutputStream().write(input.getBytes(StandardCharsets.UTF_8));
-        p.getOutputStream().close();
-        String out = new String(p.getInputStream().readAllBytes(), StandardCharsets.UTF_8);
-        assertEquals(0, p.waitFor(), out);
-        return out;
+        org.thermotile.jobs.testing.ExternalTool.Result r = org.thermotile.jobs.testing.ExternalTool.run(command, null,
+                java.util.Map.of(), org.thermotile.jobs.testing.ExternalTool.TIMEOUT, input);
+        assertEquals(0, r.exitCode(), r.all());
+        return r.all();
     }
 }

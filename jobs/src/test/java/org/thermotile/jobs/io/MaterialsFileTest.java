@@ -185,10 +185,10 @@ class MaterialsFileTest {
         assertContains(yamlError("- id: a\n  base: concrete\n  albedo: high\n"), "key 'albedo'",
                 "'high' is not a number", "no units");
         assertContains(yamlError("- id: a\n  base: concrete\n  albedo: 1.4\n"), "entry 1 (line 1, id 'a')",
-                "albedo = 1.4 is outside 0.0…1.0", "fix the value");
+                "albedo = 1.4 is outside its valid range 0 ≤ albedo ≤ 1", "fix the value");
         assertContains(yamlError("- id: a\n  base: concrete\n  albedo: [1, 2]\n"), "key 'albedo'", "expected a number");
         assertContains(yamlError("- id: a\n  base: concrete\n  layers:\n    - {thickness_m: -1, conductivity: 1, heat_capacity: 2e6}\n"),
-                "key 'layers[0]'", "thickness -1.0 m must be in (0, 20) m");
+                "key 'layers[0].thickness_m'", "thickness = -1 is outside its valid range 0 < thickness < 20 m");
         assertContains(yamlError("- id: a\n  base: concrete\n  layers:\n    - {thickness_m: 0.1, heat_capacity: 2e6}\n"),
                 "key 'layers[0].conductivity': missing", "W/(m K)");
     }
@@ -215,7 +215,7 @@ class MaterialsFileTest {
         assertContains(yamlError("- id: a\n  base: water\n  bottom: {temperature_c: 10}\n"),
                 "adiabatic bottom has no temperature");
         assertContains(yamlError("- id: a\n  base: concrete\n  bottom: {temperature_c: 95}\n"),
-                "outside 200…350 K");
+                "bottom_temperature_c = 95 is outside its valid range");
     }
 
     @Test

@@ -13,6 +13,7 @@ import java.util.concurrent.TimeUnit;
 import java.util.regex.Matcher;
 import java.util.regex.Pattern;
 import org.junit.jupiter.api.Assumptions;
+import org.thermotile.jobs.testing.ExternalTool;
 
 /**
  * Headless Debian Chromium as an independent check of a page: loads it from file://, reports
@@ -55,25 +56,11 @@ final class Chromium {
 
     /** The browser on PATH; skips the test when absent, fails it when absent and env CI is set. */
     static Path executable() {
-        Optional<Path> found = find();
-        if (found.isEmpty() && System.getenv("CI") != null) {
-            fail("chromium is not installed but CI is set: install Debian's chromium (apt-get install -y chromium)");
-        }
-        Assumptions.assumeTrue(found.isPresent(), "chromium not installed; browser checks skipped");
-        return found.get();
+        return ExternalTool.require("apt-get install -y chromium", "chromium", "chromium-browser");
     }
 
     static Optional<Path> find() {
-        String path = System.getenv().getOrDefault("PATH", "");
-        for (String name : List.of("chromium", "chromium-browser")) {
-            for (String d : path.split(java.io.File.pathSeparator)) {
-                Path p = Path.of(d, name);
-                if (Files.isExecutable(p)) {
-                    return Optional.of(p);
-                }
-            }
-        }
-        return Optional.empty();
+        return ExternalTool.locate("chromium", "chromium-browser");
     }
 
     /** Loads a copy of {@code page} (the probe inserted) and returns what the probe and the console saw. */
@@ -129,12 +116,13 @@ final class Chromium {
         cmd.addAll(FLAGS);
         cmd.add("--user-data-dir=" + profile);
         cmd.addAll(args);
-        Path out = work.resolve("chromium-" + System.nanoTime() + ".out"), err = out.resolveSibling(out.getFileName() + ".err");
-        Process p = new ProcessBuilder(cmd).redirectOutput(out.toFile()).redirectError(err.toFile()).start();
-        if (!p.waitFor(90, TimeUnit.SECONDS)) {
-            p.destroyForcibly();
-            fail("chromium did not finish within 90 s: " + cmd);
+        ExternalTool.Result r;
+        try {
+            r = ExternalTool.run(cmd, work, java.util.Map.of(), java.time.Duration.ofSeconds(90), null);
+        } catch (IOException e) {
+            fail("chromium: " + e.getMessage());
+            throw e;
         }
-        return new Run(Files.readString(out), Files.readString(err));
+        return new Run(r.stdout(), r.stderr());
     }
 }

@@ -23,16 +23,7 @@ public final class Gdal {
 
     /** Skips (or, in CI, fails) the calling test when {@code tool} is not installed. */
     public static void require(String tool) {
-        boolean present;
-        try {
-            present = run(List.of(tool, "--version")).contains("GDAL");
-        } catch (IOException e) {
-            present = false;
-        }
-        if (!present && System.getenv("CI") != null) {
-            fail(tool + " not found but CI is set: the CI script must install Debian gdal-bin");
-        }
-        assumeTrue(present, tool + " not installed (apt-get install gdal-bin); GDAL check skipped");
+        ExternalTool.require("apt-get install gdal-bin", tool);
     }
 
     /** {@code gdalinfo -json -stats} of a copy of {@code file} (so no .aux.xml lands beside it). */
@@ -41,7 +32,8 @@ public final class Gdal {
         Path copy = dir.resolve(file.getFileName());
         Files.copy(file, copy, StandardCopyOption.REPLACE_EXISTING);
         try {
-            return new ObjectMapper().readTree(run(List.of("gdalinfo", "-json", "-stats", copy.toString())));
+            return new ObjectMapper().readTree(ExternalTool.succeeded(ExternalTool.run(
+                    List.of("gdalinfo", "-json", "-stats", copy.toString()))).stdout());
         } finally {
             try (var s = Files.list(dir)) {
                 for (Path p : s.toList()) {
@@ -54,20 +46,6 @@ public final class Gdal {
 
     /** Runs a command, returns its standard output; fails on a non-zero exit. */
     public static String run(List<String> command) throws IOException {
-        Process p = new ProcessBuilder(new ArrayList<>(command)).redirectErrorStream(true).start();
-        String out = new String(p.getInputStream().readAllBytes(), StandardCharsets.UTF_8);
-        try {
-            if (!p.waitFor(60, TimeUnit.SECONDS)) {
-                p.destroyForcibly();
-                throw new IOException(command + " timed out");
-            }
-        } catch (InterruptedException e) {
-            Thread.currentThread().interrupt();
-            throw new IOException(e);
-        }
-        if (p.exitValue() != 0) {
-            throw new IOException(command + " exited " + p.exitValue() + ": " + out);
-        }
-        return out;
+        return ExternalTool.output(command);
     }
 }

@@ -17,11 +17,13 @@ public record BottomBoundary(Kind kind, double temperatureK, double filmResistan
     public enum Kind { DEEP_GROUND, INDOOR_AIR, ADIABATIC }
 
     public BottomBoundary {
-        if (kind == Kind.INDOOR_AIR && !(filmResistanceM2KW > 0)) {
-            throw new IllegalArgumentException("indoor-air boundary needs a film resistance > 0 m² K/W");
+        if (kind == Kind.INDOOR_AIR) {
+            MaterialProperty.BOTTOM_FILM_RESISTANCE.check("an indoor-air bottom needs a film resistance",
+                    filmResistanceM2KW);
         }
-        if (!Double.isNaN(temperatureK) && !(temperatureK > 200 && temperatureK < 350)) {
-            throw new IllegalArgumentException("bottom temperature " + temperatureK + " K is outside 200…350 K");
+        if (!Double.isNaN(temperatureK)) {
+            MaterialProperty.BOTTOM_TEMPERATURE_C.check("bottom",
+                    temperatureK - org.thermotile.model.constants.Physical.ZERO_CELSIUS_K);
         }
     }
 

@@ -11,18 +11,10 @@ package org.thermotile.model.materials;
 public record Layer(String name, double thicknessM, double conductivityWmK,
         double volumetricHeatCapacityJm3K) implements java.io.Serializable {
     public Layer {
-        if (!(thicknessM > 0 && thicknessM < 20)) {
-            throw new IllegalArgumentException("layer '" + name + "': thickness " + thicknessM
-                    + " m must be in (0, 20) m");
-        }
-        if (!(conductivityWmK > 0 && conductivityWmK < 500)) {
-            throw new IllegalArgumentException("layer '" + name + "': conductivity " + conductivityWmK
-                    + " W/(m K) must be in (0, 500)");
-        }
-        if (!(volumetricHeatCapacityJm3K > 1e3 && volumetricHeatCapacityJm3K < 1e8)) {
-            throw new IllegalArgumentException("layer '" + name + "': volumetric heat capacity "
-                    + volumetricHeatCapacityJm3K + " J/(m³ K) must be in (1e3, 1e8)");
-        }
+        String owner = "layer '" + name + "'";
+        MaterialProperty.LAYER_THICKNESS.check(owner, thicknessM);
+        MaterialProperty.LAYER_CONDUCTIVITY.check(owner, conductivityWmK);
+        MaterialProperty.LAYER_HEAT_CAPACITY.check(owner, volumetricHeatCapacityJm3K);
     }
 
     /** Thermal diffusivity κ = k / ρc [m² s⁻¹]. */

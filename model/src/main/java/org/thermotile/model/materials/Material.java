@@ -13,6 +13,8 @@ import java.util.Objects;
  *
  * @param id                     stable identifier used in class tables and run files ("asphalt_aged")
  * @param name                   human name
+ * <p>Valid ranges, units and sources: {@link MaterialProperty}.
+ *
  * @param albedo                 broadband solar reflectance α [0…1]
  * @param emissivity             thermal emittance ε [0…1] (= thermal absorptance, Kirchhoff)
  * @param layers                 construction from the surface down; empty in slab mode
@@ -32,27 +34,23 @@ public record Material(String id, String name, double albedo, double emissivity,
         Objects.requireNonNull(bottom, "bottom");
         // Sorted, so that anything printing the sources is deterministic.
         sources = java.util.Collections.unmodifiableSortedMap(new java.util.TreeMap<>(sources));
-        check(id, "albedo", albedo, 0, 1);
-        check(id, "emissivity", emissivity, 0, 1);
-        check(id, "moisture_availability", moistureAvailability, 0, 1);
-        check(id, "anthropogenic_heat", anthropogenicHeatWm2, 0, 2000);
+        String owner = "material '" + id + "'";
+        MaterialProperty.ALBEDO.check(owner, albedo);
+        MaterialProperty.EMISSIVITY.check(owner, emissivity);
+        MaterialProperty.MOISTURE_AVAILABILITY.check(owner, moistureAvailability);
+        MaterialProperty.ANTHROPOGENIC_HEAT.check(owner, anthropogenicHeatWm2);
         if (layers.isEmpty()) {
-            if (!(slabHeatCapacityJm2K > 100 && slabHeatCapacityJm2K < 1e9)) {
-                throw new IllegalArgumentException("material '" + id + "': a slab material needs "
-                        + "surface_heat_capacity in (100, 1e9) J/(m² K), got " + slabHeatCapacityJm2K);
+            if (Double.isNaN(slabHeatCapacityJm2K)) {
+                throw new IllegalArgumentException(owner + ": a slab material (no layers) needs "
+                        + "surface_heat_capacity, " + MaterialProperty.SURFACE_HEAT_CAPACITY.rangeText());
             }
+            MaterialProperty.SURFACE_HEAT_CAPACITY.check(owner + " (a slab)", slabHeatCapacityJm2K);
         } else if (!Double.isNaN(slabHeatCapacityJm2K)) {
             throw new IllegalArgumentException("material '" + id + "': give either layers or a slab "
                     + "heat capacity, not both");
         }
     }
 
-    private static void check(String id, String key, double v, double lo, double hi) {
-        if (!(v >= lo && v <= hi)) {
-            throw new IllegalArgumentException("material '" + id + "': " + key + " = " + v
-                    + " is outside " + lo + "…" + hi);
-        }
-    }
 
     /** True for a single lumped slab (no layers). */
     public boolean isSlab() {

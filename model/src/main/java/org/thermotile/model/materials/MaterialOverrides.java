@@ -7,7 +7,6 @@ import java.util.Locale;
 import java.util.Map;
 import java.util.regex.Matcher;
 import java.util.regex.Pattern;
-import org.thermotile.model.constants.Physical;
 
 /**
  * Changes to a material by key, each giving a new {@link Material} (materials are immutable).
@@ -37,6 +36,11 @@ public final class MaterialOverrides {
             "anthropogenic_heat", "surface_heat_capacity", "bottom_temperature_c");
     /** The per-layer fields, used as {@code layers[i].<field>}. */
     public static final List<String> LAYER_FIELDS = List.of("thickness", "conductivity", "heat_capacity");
+    /** The schema properties an override may change (the film resistance only through a materials file). */
+    public static final List<MaterialProperty> KEYS = List.of(MaterialProperty.ALBEDO, MaterialProperty.EMISSIVITY,
+            MaterialProperty.MOISTURE_AVAILABILITY, MaterialProperty.ANTHROPOGENIC_HEAT,
+            MaterialProperty.SURFACE_HEAT_CAPACITY, MaterialProperty.BOTTOM_TEMPERATURE_C,
+            MaterialProperty.LAYER_THICKNESS, MaterialProperty.LAYER_CONDUCTIVITY, MaterialProperty.LAYER_HEAT_CAPACITY);
 
     private static final Pattern LAYER_KEY = Pattern.compile("layers\\[(\\d+)]\\.([a-z_]+)");
 
@@ -129,75 +133,62 @@ public final class MaterialOverrides {
         }
         Map<String, String> sources = new LinkedHashMap<>(base.sources());
         String note = "set to " + value + " by " + origin;
-        double albedo = base.albedo();
-        double emissivity = base.emissivity();
-        double beta = base.moistureAvailability();
-        double qf = base.anthropogenicHeatWm2();
-        double slab = base.slabHeatCapacityJm2K();
-        BottomBoundary bottom = base.bottom();
-        List<Layer> layers = new ArrayList<>(base.layers());
-        try {
-            switch (k) {
-                case "albedo" -> albedo = value;
-                case "emissivity" -> emissivity = value;
-                case "moisture_availability" -> beta = value;
-                case "anthropogenic_heat" -> qf = value;
-                case "surface_heat_capacity" -> {
-                    if (!base.isSlab()) {
-                        throw new IllegalArgumentException(where + ": surface_heat_capacity applies only to slab "
-                                + "materials, and '" + base.id() + "' is layered (its surface heat capacity is "
-                                + "that of its top layer); change layers[0].thickness or "
-                                + "layers[0].heat_capacity instead");
-                    }
-                    slab = value;
+        MaterialProperty p = MaterialProperty.byKey(k).filter(x -> KEYS.contains(x)).orElse(null);
+        Matcher lm = LAYER_KEY.matcher(k);
+        if (p == null || (p.isLayerProperty() && !lm.matches())) {
+            throw new IllegalArgumentException(where + ": unknown key '" + k + "'."
+                    + NameSuggestions.didYouMean(k, validKeys(base)) + " Valid keys: " + describeKeys(base));
+        }
+        int layer = 0;
+        String sourceKey = k;
+        switch (p) {
+            case SURFACE_HEAT_CAPACITY -> {
+                if (!base.isSlab()) {
+                    throw new IllegalArgumentException(where + ": surface_heat_capacity applies only to slab "
+                            + "materials, and '" + base.id() + "' is layered (its surface heat capacity is "
+                            + "that of its top layer); change layers[0].thickness or "
+                            + "layers[0].heat_capacity instead");
                 }
-                case "bottom_temperature_c" -> {
-                    if (bottom.kind() == BottomBoundary.Kind.ADIABATIC) {
-                        throw new IllegalArgumentException(where + ": '" + base.id() + "' has an adiabatic "
-                                + "bottom, which has no temperature; only deep-ground and indoor-air bottoms take "
-                                + "bottom_temperature_c");
-                    }
-                    bottom = new BottomBoundary(bottom.kind(), value + Physical.ZERO_CELSIUS_K,
-                            bottom.filmResistanceM2KW());
-                    String old = sources.getOrDefault("bottom", "");
-                    note = "temperature set to " + value + " °C by " + origin + (old.isEmpty() ? "" : "; otherwise: " + old);
-                    k = "bottom";
+            }
+            case BOTTOM_TEMPERATURE_C -> {
+                if (base.bottom().kind() == BottomBoundary.Kind.ADIABATIC) {
+                    throw new IllegalArgumentException(where + ": '" + base.id() + "' has an adiabatic "
+                            + "bottom, which has no temperature; only deep-ground and indoor-air bottoms take "
+                            + "bottom_temperature_c");
                 }
-                default -> {
-                    Matcher lm = LAYER_KEY.matcher(k);
-                    if (!lm.matches() || !LAYER_FIELDS.contains(lm.group(2))) {
-                        throw new IllegalArgumentException(where + ": unknown key '" + k + "'."
-                                + NameSuggestions.didYouMean(k, validKeys(base))
-                                + " Valid keys: " + describeKeys(base));
-                    }
+                String old = sources.getOrDefault("bottom", "");
+                note = "temperature set to " + value + " °C by " + origin + (old.isEmpty() ? "" : "; otherwise: " + old);
+                sourceKey = "bottom";
+            }
+            default -> {
+                if (p.isLayerProperty()) {
                     if (base.isSlab()) {
                         throw new IllegalArgumentException(where + ": '" + base.id() + "' is a slab material with "
                                 + "no layers; use surface_heat_capacity to change its heat capacity");
                     }
-                    int i = Integer.parseInt(lm.group(1));
-                    if (i >= layers.size()) {
-                        throw new IllegalArgumentException(where + ": '" + base.id() + "' has " + layers.size()
-                                + " layers, layers[0] … layers[" + (layers.size() - 1) + "]; layers[" + i
+                    layer = Integer.parseInt(lm.group(1));
+                    if (layer >= base.layers().size()) {
+                        throw new IllegalArgumentException(where + ": '" + base.id() + "' has " + base.layers().size()
+                                + " layers, layers[0] … layers[" + (base.layers().size() - 1) + "]; layers[" + layer
                                 + "] names no layer");
                     }
-                    Layer l = layers.get(i);
-                    Layer changed = switch (lm.group(2)) {
-                        case "thickness" -> new Layer(l.name(), value, l.conductivityWmK(), l.volumetricHeatCapacityJm3K());
-                        case "conductivity" -> new Layer(l.name(), l.thicknessM(), value, l.volumetricHeatCapacityJm3K());
-                        default -> new Layer(l.name(), l.thicknessM(), l.conductivityWmK(), value);
-                    };
-                    layers.set(i, changed);
-                    String old = sources.getOrDefault("layers[" + i + "]", "");
-                    note = lm.group(2) + " " + note + (old.isEmpty() ? "" : "; otherwise: " + old);
-                    k = "layers[" + i + "]";
+                    String old = sources.getOrDefault("layers[" + layer + "]", "");
+                    note = p.field() + " " + note + (old.isEmpty() ? "" : "; otherwise: " + old);
+                    sourceKey = "layers[" + layer + "]";
                 }
             }
-            sources.put(k, note);
-            return new Material(base.id(), base.name(), albedo, emissivity, layers, slab, bottom, beta, qf, sources);
+        }
+        String problem = p.problem(value);
+        if (problem != null) {
+            throw new IllegalArgumentException(where + ": " + problem);
+        }
+        try {
+            Material changed = p.with(base, layer, value);
+            sources.put(sourceKey, note);
+            return new Material(changed.id(), changed.name(), changed.albedo(), changed.emissivity(),
+                    changed.layers(), changed.slabHeatCapacityJm2K(), changed.bottom(),
+                    changed.moistureAvailability(), changed.anthropogenicHeatWm2(), sources);
         } catch (IllegalArgumentException e) {
-            if (e.getMessage() != null && e.getMessage().startsWith(where)) {
-                throw e;
-            }
             throw new IllegalArgumentException(where + ": " + e.getMessage(), e);
         }
     }
@@ -224,10 +215,14 @@ public final class MaterialOverrides {
 
     /** All keys with units, for messages; layer keys as one pattern with this material's index range. */
     private static String describeKeys(Material m) {
-        StringBuilder sb = new StringBuilder("albedo [0…1], emissivity [0…1], moisture_availability [0…1], "
-                + "anthropogenic_heat [W/m²], surface_heat_capacity [J/(m² K), slab materials only], "
-                + "bottom_temperature_c [°C], layers[i].thickness [m], layers[i].conductivity [W/(m K)], "
-                + "layers[i].heat_capacity [J/(m³ K)]");
+        StringBuilder sb = new StringBuilder();
+        for (MaterialProperty p : KEYS) {
+            if (sb.length() > 0) {
+                sb.append(", ");
+            }
+            sb.append(p.key()).append(" [").append(p.rangeText()).append(p.key().equals("surface_heat_capacity")
+                    ? ", slab materials only" : "").append(']');
+        }
         sb.append(m.isSlab() ? " ('" + m.id() + "' is a slab: no layers)"
                 : " with i = 0…" + (m.layers().size() - 1) + " for '" + m.id() + "'");
         return sb.toString();

@@ -24,6 +24,7 @@ import org.apache.commons.math3.optim.univariate.UnivariatePointValuePair;
 import org.thermotile.model.constants.Physical;
 import org.thermotile.model.forcing.Forcing;
 import org.thermotile.model.materials.Material;
+import org.thermotile.model.materials.MaterialProperty;
 import org.thermotile.model.materials.MaterialOverrides;
 import org.thermotile.model.tile.TileSimulation;
 
@@ -64,8 +65,7 @@ public final class Calibration {
     private Calibration() {}
 
     /** Keys a calibration may move, as in {@link MaterialOverrides}. */
-    public static final List<String> KEYS = List.of("albedo", "emissivity", "moisture_availability",
-            "anthropogenic_heat");
+    public static final List<String> KEYS = MaterialProperty.keys(MaterialProperty.SURFACE);
 
     /**
      * One free parameter: a property of one palette material, with its bounds.
@@ -88,29 +88,22 @@ public final class Calibration {
         }
 
         /**
-         * A parameter with the material library's valid range of its key (the ranges
-         * {@link Material} enforces): albedo, emissivity and moisture availability 0…1 [–],
-         * anthropogenic heat 0…2000 W m⁻². Emissivity starts at 0.5, below which no surface of the
-         * library lies and the longwave balance is not that of a built or natural surface.
+         * A parameter with the valid range of its key in {@link MaterialProperty} (the ranges
+         * {@link Material} enforces): albedo and moisture availability 0…1 [–], anthropogenic heat
+         * 0…2000 W m⁻². Emissivity is searched from 0.5 (not from its valid lower end), below which no
+         * surface of the library lies and the longwave balance is not that of a built or natural surface.
          */
         public static Parameter of(int material, String key) {
-            return switch (key) {
-                case "albedo", "moisture_availability" -> new Parameter(material, key, 0.0, 1.0);
-                case "emissivity" -> new Parameter(material, key, 0.5, 1.0);
-                case "anthropogenic_heat" -> new Parameter(material, key, 0.0, 2000.0);
-                default -> throw new IllegalArgumentException("calibration parameter '" + key
-                        + "' is not one of " + KEYS);
-            };
+            MaterialProperty p = MaterialProperty.byKey(key).filter(MaterialProperty.SURFACE::contains)
+                    .orElseThrow(() -> new IllegalArgumentException("calibration parameter '" + key
+                            + "' is not one of " + KEYS));
+            double lo = p == MaterialProperty.EMISSIVITY ? 0.5 : p.lo();
+            return new Parameter(material, p.key(), lo, p.hi());
         }
 
         /** Current value of this parameter in {@code m}. */
         public double valueIn(Material m) {
-            return switch (key) {
-                case "albedo" -> m.albedo();
-                case "emissivity" -> m.emissivity();
-                case "moisture_availability" -> m.moistureAvailability();
-                default -> m.anthropogenicHeatWm2();
-            };
+            return MaterialProperty.byKey(key).orElseThrow().valueIn(m);
         }
     }
 

@@ -24,6 +24,13 @@ import java.util.function.DoubleUnaryOperator;
 import java.util.regex.Pattern;
 import org.thermotile.model.constants.Physical;
 import org.thermotile.model.forcing.HourlyWeather;
+import static org.thermotile.jobs.io.weather.WeatherCsvColumns.COLUMNS;
+import static org.thermotile.jobs.io.weather.WeatherCsvColumns.TIME;
+import static org.thermotile.jobs.io.weather.WeatherCsvColumns.allNames;
+import static org.thermotile.jobs.io.weather.WeatherCsvColumns.byHeader;
+import static org.thermotile.jobs.io.weather.WeatherCsvColumns.requiredNames;
+
+import org.thermotile.jobs.io.weather.WeatherCsvColumns.Column;
 
 /**
  * Reader and writer of thermotile's hourly weather file, a small CSV format of our own.
@@ -119,67 +126,6 @@ public final class WeatherCsv {
     private static final DateTimeFormatter TIME_SECONDS = DateTimeFormatter.ofPattern("uuuu-MM-dd'T'HH:mm:ssxxxxx", Locale.ROOT);
     private static final String EXAMPLE_TIME = "2026-07-14T13:00+02:00";
 
-    /** The value columns of the format, in writing order. Ranges are in file units. */
-    enum Column {
-        AIR_TEMP_C("air_temp_c", true, "air temperature", "°C", -60, 60, 2,
-                c -> c + Physical.ZERO_CELSIUS_K, k -> k - Physical.ZERO_CELSIUS_K,
-                "give air temperature in °C (not °F or K)"),
-        REL_HUMIDITY_PCT("rel_humidity_pct", true, "relative humidity", "%", 0, 100, 2,
-                p -> p / 100.0, f -> f * 100.0,
-                "give relative humidity in percent; clip sensor readings slightly above 100 to 100"),
-        WIND_MS("wind_ms", true, "wind speed", "m/s", 0, 75, 2, v -> v, v -> v,
-                "give the hourly mean wind speed in m/s (km/h ÷ 3.6, knots × 0.5144)"),
-        GHI_WM2("ghi_wm2", true, "global horizontal irradiance", "W/m²", 0, 1400, 1, v -> v, v -> v,
-                "give hourly mean irradiance in W/m² (Wh/m² per hour is the same number; kJ/m² per hour ÷ 3.6); "
-                        + "set small negative night-time readings to 0"),
-        DNI_WM2("dni_wm2", false, "direct normal irradiance", "W/m²", 0, 1400, 1, v -> v, v -> v,
-                "give hourly mean irradiance in W/m² (kJ/m² per hour ÷ 3.6), or leave the cell empty"),
-        DHI_WM2("dhi_wm2", false, "diffuse horizontal irradiance", "W/m²", 0, 900, 1, v -> v, v -> v,
-                "give hourly mean irradiance in W/m² (kJ/m² per hour ÷ 3.6), or leave the cell empty"),
-        SKY_LW_WM2("sky_lw_wm2", false, "sky longwave irradiance", "W/m²", 50, 600, 1, v -> v, v -> v,
-                "give downwelling longwave irradiance in W/m², or leave the cell empty to have it modelled"),
-        CLOUD_FRACTION("cloud_fraction", false, "cloud fraction", "", 0, 1, 3, v -> v, v -> v,
-                "give cloud cover as a fraction 0…1 (oktas ÷ 8, percent ÷ 100), or leave the cell empty"),
-        PRESSURE_HPA("pressure_hpa", false, "station pressure", "hPa", 500, 1100, 2,
-                h -> h * 100.0, p -> p / 100.0,
-                "give station pressure in hPa (Pa ÷ 100, kPa × 10), or leave the cell empty");
-
-        final String header;
-        final boolean required;
-        final String quantity;
-        final String unit;
-        final double min;
-        final double max;
-        final int decimals;
-        final DoubleUnaryOperator toSi;
-        final DoubleUnaryOperator fromSi;
-        final String rangeFix;
-
-        Column(String header, boolean required, String quantity, String unit, double min, double max,
-                int decimals, DoubleUnaryOperator toSi, DoubleUnaryOperator fromSi, String rangeFix) {
-            this.header = header;
-            this.required = required;
-            this.quantity = quantity;
-            this.unit = unit;
-            this.min = min;
-            this.max = max;
-            this.decimals = decimals;
-            this.toSi = toSi;
-            this.fromSi = fromSi;
-            this.rangeFix = rangeFix;
-        }
-
-        String range() {
-            return fmtLimit(min) + "…" + fmtLimit(max) + (unit.isEmpty() ? "" : " " + unit);
-        }
-
-        private static String fmtLimit(double v) {
-            return v == Math.rint(v) ? Long.toString((long) v) : Double.toString(v);
-        }
-    }
-
-    private static final String TIME = "time";
-    private static final Column[] COLUMNS = Column.values();
 
     // ------------------------------------------------------------------------------------ read
 
@@ -522,264 +468,50 @@ public final class WeatherCsv {
         return x0 + (x1 - x0) * f;
     }
 
-    private static Column byHeader(String name) {
-        for (Column c : COLUMNS) {
-            if (c.header.equals(name)) {
-                return c;
-            }
-        }
-        return null;
-    }
-
-    private static String allNames() {
-        StringBuilder s = new StringBuilder(TIME);
-        for (Column c : COLUMNS) {
-            s.append(", ").append(c.header);
-        }
-        return s.toString();
-    }
-
-    private static String requiredNames() {
-        StringBuilder s = new StringBuilder(TIME);
-        for (Column c : COLUMNS) {
-            if (c.required) {
-                s.append(", ").append(c.header);
-            }
-        }
-        return s.toString();
-    }
-
-    /** "did you mean …?" for a header name that is not a column, then the full list. */
-    static String unknownColumnFix(String name) {
-        String best = null;
-        int bestDistance = Integer.MAX_VALUE;
-        List<String> names = new ArrayList<>();
-        names.add(TIME);
-        for (Column c : COLUMNS) {
-            names.add(c.header);
-        }
-        for (String known : names) {
-            int d = known.startsWith(name) && name.length() >= 2 ? 1 : editDistance(name, known);
-            if (d < bestDistance) {
-                bestDistance = d;
-                best = known;
-            }
-        }
-        String list = "the columns are " + allNames();
-        if (bestDistance <= Math.max(2, name.length() / 3)) {
-            return "did you mean \"" + best + "\"? (" + list + ")";
-        }
-        return "rename or remove the column; " + list;
-    }
-
-    /** Levenshtein edit distance (insertions, deletions, substitutions each cost 1). */
-    static int editDistance(String a, String b) {
-        int[] prev = new int[b.length() + 1];
-        int[] cur = new int[b.length() + 1];
-        for (int j = 0; j <= b.length(); j++) {
-            prev[j] = j;
-        }
-        for (int i = 1; i <= a.length(); i++) {
-            cur[0] = i;
-            for (int j = 1; j <= b.length(); j++) {
-                int sub = prev[j - 1] + (a.charAt(i - 1) == b.charAt(j - 1) ? 0 : 1);
-                cur[j] = Math.min(sub, Math.min(prev[j] + 1, cur[j - 1] + 1));
-            }
-            int[] t = prev;
-            prev = cur;
-            cur = t;
-        }
-        return prev[b.length()];
-    }
-
     // ---------------------------------------------------------------------------- coverage
 
-    /**
-     * Checks that {@code weather} can drive the period {@code [start, end]}: its first hour is at
-     * or before {@code start} and its last hour at or after {@code end}, so every instant of the
-     * period lies between two time stamps and can be interpolated.
-     *
-     * @param source named in the message (file path, or e.g. "synthetic weather")
-     * @throws WeatherCsvException naming the first and last time available and the period asked
-     *                             for, when the weather does not cover it
-     * @throws IllegalArgumentException when {@code end} is not after {@code start}
-     */
+    /** See {@link WeatherCoverage#requireCovers}. */
     public static void requireCovers(HourlyWeather weather, String source, Instant start, Instant end) {
-        if (!end.isAfter(start)) {
-            throw new IllegalArgumentException("period end " + end + " must be after its start " + start);
-        }
-        ZoneOffset off = ZoneOffset.ofTotalSeconds(weather.utcOffsetSeconds);
-        int n = weather.hours();
-        if (n == 0) {
-            throw new WeatherCsvException(source, 0, null, "the weather has no hours",
-                    "give weather that covers " + format(start, off) + " … " + format(end, off));
-        }
-        long first = weather.epochSecond[0];
-        long last = weather.epochSecond[n - 1];
-        long startS = start.getEpochSecond();
-        long endS = ceilSeconds(end);
-        if (startS >= first && endS <= last) {
-            return;
-        }
-        StringBuilder why = new StringBuilder();
-        if (startS < first) {
-            why.append("it starts ").append(duration(first - startS)).append(" after the period starts");
-        }
-        if (endS > last) {
-            why.append(why.length() > 0 ? " and " : "").append("it ends ").append(duration(endS - last))
-                    .append(" before the period ends");
-        }
-        throw new WeatherCsvException(source, 0, null, "the weather covers " + format(first, off) + " … "
-                + format(last, off) + " (" + n + " hours) but the period asked for is " + format(start, off) + " … "
-                + format(end, off) + ": " + why,
-                "give weather with a time stamp at or before the period's start and at or after its end, "
-                        + "or shorten the period to lie within " + format(first, off) + " … " + format(last, off));
+        WeatherCoverage.requireCovers(weather, source, start, end);
     }
 
-    /**
-     * The smallest run of hours of {@code weather} that spans {@code [start, end]}: from the last
-     * hour at or before {@code start} to the first hour at or after {@code end}, both included.
-     *
-     * @throws WeatherCsvException as {@link #requireCovers} when the weather does not cover the period
-     */
+    /** See {@link WeatherCoverage#slice}. */
     public static HourlyWeather slice(HourlyWeather weather, String source, Instant start, Instant end) {
-        requireCovers(weather, source, start, end);
-        long t0 = weather.epochSecond[0];
-        int from = (int) Math.floorDiv(start.getEpochSecond() - t0, (long) HOUR_S);
-        int to = (int) -Math.floorDiv(-(ceilSeconds(end) - t0), (long) HOUR_S);
-        return weather.slice(from, to + 1);
-    }
-
-    private static long ceilSeconds(Instant t) {
-        return t.getNano() == 0 ? t.getEpochSecond() : t.getEpochSecond() + 1;
-    }
-
-    private static String duration(long seconds) {
-        long h = seconds / HOUR_S;
-        long rest = seconds % HOUR_S;
-        return h + " h" + (rest != 0 ? " " + rest / 60 + " min" : "");
+        return WeatherCoverage.slice(weather, source, start, end);
     }
 
     // -------------------------------------------------------------------------------- write
 
     /** {@link #write(HourlyWeather, Writer, List)} with no comment lines. */
     public static void write(HourlyWeather weather, Writer out) throws IOException {
-        write(weather, out, List.of());
+        WeatherCsvWriter.write(weather, out);
     }
 
     /** {@link #write(HourlyWeather, Path, List)} with no comment lines. */
     public static void write(HourlyWeather weather, Path file) throws IOException {
-        write(weather, file, List.of());
+        WeatherCsvWriter.write(weather, file);
     }
 
-    /**
-     * Writes {@code weather} to {@code file} (UTF-8), through a temporary file beside it that is
-     * moved into place when complete, so no half-written file is left behind.
-     */
+    /** See {@link WeatherCsvWriter#write(HourlyWeather, Path, List)}. */
     public static void write(HourlyWeather weather, Path file, List<String> comments) throws IOException {
-        Path abs = file.toAbsolutePath();
-        Path tmp = abs.resolveSibling(abs.getFileName() + ".tmp");
-        try (Writer w = Files.newBufferedWriter(tmp, StandardCharsets.UTF_8)) {
-            write(weather, w, comments);
-        } catch (IOException | RuntimeException e) {
-            Files.deleteIfExists(tmp);
-            throw e;
-        }
-        Files.move(tmp, abs, StandardCopyOption.REPLACE_EXISTING, StandardCopyOption.ATOMIC_MOVE);
+        WeatherCsvWriter.write(weather, file, comments);
     }
 
-    /**
-     * Writes {@code weather} in the format of the class comment: comment lines ({@code # } + text),
-     * the header, one line per hour. SI values are converted to file units (t [°C] = T [K] −
-     * 273.15, RH [%] = 100·RH, p [hPa] = p [Pa] / 100) and printed with fixed decimals, rounded
-     * half up. Every printed value is checked against the reader's ranges, so what is written can
-     * be read.
-     *
-     * @param comments lines written first as comments (no line breaks inside)
-     * @throws IllegalArgumentException naming the hour, its time and the column when a required
-     *                                  value is missing or not finite, or a value is outside its range
-     */
+    /** See {@link WeatherCsvWriter#write(HourlyWeather, Writer, List)}. */
     public static void write(HourlyWeather weather, Writer out, List<String> comments) throws IOException {
-        int n = weather.hours();
-        if (n == 0) {
-            throw new IllegalArgumentException("weather to write has no hours");
-        }
-        ZoneOffset off = ZoneOffset.ofTotalSeconds(weather.utcOffsetSeconds);
-        double[][] series = seriesOf(weather);
-        boolean[] write = new boolean[COLUMNS.length];
-        StringBuilder s = new StringBuilder(64 * (n + 1));
-        for (String c : comments) {
-            if (c.indexOf('\n') >= 0 || c.indexOf('\r') >= 0) {
-                throw new IllegalArgumentException("a weather file comment must be one line: \"" + c + "\"");
-            }
-            s.append("# ").append(c).append('\n');
-        }
-        s.append(TIME);
-        for (Column c : COLUMNS) {
-            write[c.ordinal()] = c.required || anyValue(series[c.ordinal()]);
-            if (write[c.ordinal()]) {
-                s.append(',').append(c.header);
-            }
-        }
-        s.append('\n');
-        for (int h = 0; h < n; h++) {
-            s.append(format(weather.epochSecond[h], off));
-            for (Column c : COLUMNS) {
-                if (!write[c.ordinal()]) {
-                    continue;
-                }
-                s.append(',');
-                double v = series[c.ordinal()][h];
-                if (Double.isNaN(v) && !c.required) {
-                    continue;
-                }
-                s.append(printed(c, v, h, weather.epochSecond[h], off));
-            }
-            s.append('\n');
-        }
-        out.write(s.toString());
-        out.flush();
+        WeatherCsvWriter.write(weather, out, comments);
     }
 
-    private static String printed(Column c, double siValue, int hour, long epochSecond, ZoneOffset off) {
-        String where = "weather to write, hour " + hour + " (" + format(epochSecond, off) + "), column " + c.header;
-        if (!Double.isFinite(siValue)) {
-            throw new IllegalArgumentException(where + ": value " + siValue + " cannot be written"
-                    + (c.required ? " (the column is required)" : " (use NaN for not given)"));
-        }
-        String text = String.format(Locale.ROOT, "%." + c.decimals + "f", c.fromSi.applyAsDouble(siValue));
-        if (text.startsWith("-") && Double.parseDouble(text) == 0.0) {
-            text = text.substring(1);
-        }
-        double v = Double.parseDouble(text);
-        if (!(v >= c.min && v <= c.max)) {
-            throw new IllegalArgumentException(where + ": " + c.quantity + " " + text
-                    + " is outside the accepted range " + c.range());
-        }
-        return text;
+    // ------------------------------------------------------------------------ column names
+
+    /** See {@link WeatherCsvColumns#unknownColumnFix}. */
+    static String unknownColumnFix(String name) {
+        return WeatherCsvColumns.unknownColumnFix(name);
     }
 
-    private static boolean anyValue(double[] a) {
-        for (double v : a) {
-            if (!Double.isNaN(v)) {
-                return true;
-            }
-        }
-        return false;
-    }
-
-    private static double[][] seriesOf(HourlyWeather w) {
-        double[][] s = new double[COLUMNS.length][];
-        s[Column.AIR_TEMP_C.ordinal()] = w.airTempK;
-        s[Column.REL_HUMIDITY_PCT.ordinal()] = w.relHumidity;
-        s[Column.WIND_MS.ordinal()] = w.windMs;
-        s[Column.GHI_WM2.ordinal()] = w.ghiWm2;
-        s[Column.DNI_WM2.ordinal()] = w.dniWm2;
-        s[Column.DHI_WM2.ordinal()] = w.dhiWm2;
-        s[Column.SKY_LW_WM2.ordinal()] = w.skyLongwaveWm2;
-        s[Column.CLOUD_FRACTION.ordinal()] = w.cloudFraction;
-        s[Column.PRESSURE_HPA.ordinal()] = w.pressurePa;
-        return s;
+    /** See {@link WeatherCsvColumns#editDistance}. */
+    static int editDistance(String a, String b) {
+        return WeatherCsvColumns.editDistance(a, b);
     }
 
     /** A time as the format writes it: local time in {@code offset}, seconds only when not zero. */
@@ -788,7 +520,8 @@ public final class WeatherCsv {
         return (t.getSecond() == 0 ? TIME_MINUTES : TIME_SECONDS).format(t);
     }
 
-    private static String format(Instant t, ZoneOffset offset) {
+    static String format(Instant t, ZoneOffset offset) {
         return t.getNano() == 0 ? format(t.getEpochSecond(), offset) : OffsetDateTime.ofInstant(t, offset).toString();
     }
+
 }

@@ -50,11 +50,7 @@ class GeoTiffGdalTest {
     /** Per test, so each one shows as skipped (not silently absent) where GDAL is missing. */
     @BeforeEach
     void needGdal() {
-        boolean present = gdalPresent;
-        if (!present && System.getenv("CI") != null) {
-            fail("gdalinfo not found but CI is set: the CI script must install Debian gdal-bin");
-        }
-        assumeTrue(present, "gdalinfo not installed (apt-get install gdal-bin); GDAL checks skipped");
+        org.thermotile.jobs.testing.ExternalTool.require("apt-get install gdal-bin", "gdalinfo");
     }
 
     /** Field 1000·row + col + band/4 [any unit]; the last row is no-data. */
@@ -254,20 +250,11 @@ class GeoTiffGdalTest {
     }
 
     static String run(List<String> command) throws IOException {
-        ProcessBuilder pb = new ProcessBuilder(new ArrayList<>(command)).redirectErrorStream(true);
-        pb.environment().put("GDAL_PAM_ENABLED", "NO");
-        Process p = pb.start();
-        try {
-            String out = new String(p.getInputStream().readAllBytes(), StandardCharsets.UTF_8);
-            if (!p.waitFor(60, TimeUnit.SECONDS) || p.exitValue() != 0) {
-                fail(String.join(" ", command) + " failed:\n" + out);
-            }
-            return out;
-        } catch (InterruptedException e) {
-            Thread.currentThread().interrupt();
-            throw new IOException(e);
-        } finally {
-            p.destroy();
+        org.thermotile.jobs.testing.ExternalTool.Result r = org.thermotile.jobs.testing.ExternalTool.run(command, null,
+                java.util.Map.of("GDAL_PAM_ENABLED", "NO"), org.thermotile.jobs.testing.ExternalTool.TIMEOUT, null);
+        if (r.exitCode() != 0) {
+            fail(String.join(" ", command) + " failed:\n" + r.all());
         }
+        return r.all();
     }
 }
