@@ -88,7 +88,8 @@ public final class CalibrationFiles {
                     .append(num(e.standardError())).append(',').append(e.identifiable()).append(',')
                     .append(quote(e.why())).append('\n');
         }
-        String sample = "sample of " + fit.sample().length + " pixels, " + fit.residuals() + " residuals";
+        String sample = Calibrate.samplingLabel() + ": " + fit.sample().length + " pixels, " + fit.residuals()
+                + " residuals";
         b.append("rmse_k,,").append(num(fit.rmseBeforeK())).append(',').append(num(fit.rmseAfterK()))
                 .append(",,,").append(quote(sample)).append('\n');
         b.append("bias_k,,").append(num(fit.biasBeforeK())).append(',').append(num(fit.biasAfterK()))
