@@ -32,7 +32,8 @@ import org.thermotile.model.observe.PixelSimulation;
  * <p><b>Evaluations.</b> Each evaluation of the objective is one Spark job over partitions of the
  * sampled pixels ({@link CalibrationJob}); the optimiser, the uncertainty and the files are on the
  * driver ({@link Calibration#fit}, {@link CalibrationFiles}). Writes
- * {@code RUN_DIR/observed/calibrated_materials.yaml} and {@code RUN_DIR/observed/calibration.csv}.
+ * {@code RUN_DIR/observed/calibrated_materials.yaml}, {@code RUN_DIR/observed/calibration.csv} and
+ * {@code RUN_DIR/observed/calibration.parquet} (the CSV's rows, typed).
  */
 public final class Calibrate {
     private Calibrate() {}
@@ -180,6 +181,7 @@ public final class Calibrate {
         CalibrationFiles.writeMaterials(dir.resolve("calibrated_materials.yaml"), fit,
                 "observations " + String.join(", ", names));
         CalibrationFiles.writeStatistics(dir.resolve("calibration.csv"), fit);
+        CalibrationFiles.writeParquet(spark, dir.resolve("calibration.parquet"), fit);
         return fit;
     }
 

@@ -70,7 +70,12 @@ final class CalibrationSample {
 
     /** The run's palette index of every grid cell (row-major), as the city job maps the baseline. */
     static int[] gridMaterials(TileJobSpec spec) {
-        return TileTask.inputs(new TileSpec(0, 0, 0, spec.grid().width(), spec.grid().height()), spec).materialIndex();
+        // Without the geometry block: only the land cover and the per-cell materials are read, not
+        // the whole grid's heights with a halo.
+        TileJobSpec flat = new TileJobSpec(spec.landCover(), spec.grid(), spec.palette(), spec.codeToPalette(),
+                spec.districts(), spec.forcing(), spec.settings(), spec.heights(), null, spec.heightGrid(),
+                spec.cellPalette());
+        return TileTask.inputs(new TileSpec(0, 0, 0, spec.grid().width(), spec.grid().height()), flat).materialIndex();
     }
 
     /** Palette index covering most of {@code f} (see {@link PixelCells#dominant}). */

@@ -240,6 +240,16 @@ class CalibrateJobTest {
         assertTrue(out.contains("evaluation 1: RMSE") && out.contains("evaluation 10: RMSE"), out);
         String csv = Files.readString(libraryRun.resolve("observed/calibration.csv"));
         assertTrue(csv.contains("stratified random sample by dominant material"), csv);
+        List<Row> table = spark.read().parquet(libraryRun.resolve("observed/calibration.parquet").toUri().toString())
+                .collectAsList();
+        assertEquals(fit.estimates().size() + 2, table.size(), "one row per parameter, then RMSE and bias");
+        Row rmse = table.stream().filter(r -> r.getString(0).equals("rmse_k")).findFirst().orElseThrow();
+        assertEquals(fit.rmseBeforeK(), rmse.getDouble(2), 0.0);
+        assertEquals(fit.rmseAfterK(), rmse.getDouble(3), 0.0);
+        try (var parts = Files.list(libraryRun.resolve("observed/calibration.parquet"))) {
+            assertTrue(parts.anyMatch(f -> f.getFileName().toString().equals("part-00000.snappy.parquet")),
+                    "canonical part name");
+        }
     }
 
     /**
