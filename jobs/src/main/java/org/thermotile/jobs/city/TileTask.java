@@ -64,16 +64,19 @@ public final class TileTask {
     }
 
     /**
-     * Runs one tile of one variant. For a scenario, each cell's baseline material is changed by
-     * each change whose candidate test it passes and whose adoption cut its unit falls under.
+     * What the kernel gets for one window of the grid in the baseline: its land-cover codes, its
+     * cells' palette indices (the class table, then per-cell replacements such as roofs from
+     * footprints) and its urban geometry with the run's halo (null without heights). Any window
+     * may be given, not only a planned tile: calibration simulates the cells under an image pixel
+     * through exactly this path.
      *
-     * @param variant the variant (null or the baseline: no change)
-     * @param units   per grid cell, its adoption unit (building or cell), null without scenarios
-     * @param roofs   per grid cell, whether it is a roof
+     * @param codes         land-cover code per window cell, row-major
+     * @param materialIndex palette index per window cell, or {@link TileSimulation#NO_MATERIAL}
      */
-    public static TileOutput run(TileSpec tile, TileJobSpec spec, ScenarioVariant variant, int[] units,
-            java.util.BitSet roofs) {
-        long t0 = System.nanoTime();
+    public record Inputs(int[] codes, int[] materialIndex, TileSimulation.Geometry geometry) {}
+
+    /** The baseline {@link Inputs} of {@code tile} (read from the run's rasters). */
+    public static Inputs inputs(TileSpec tile, TileJobSpec spec) {
         int[] codes;
         TileSimulation.Geometry geom = null;
         if (spec.geometry() != null) {
@@ -91,6 +94,24 @@ public final class TileTask {
             idx[i] = (c >= 0 && c < lut.length) ? lut[c] : TileSimulation.NO_MATERIAL;
         }
         spec.applyCellPalette(idx, tile.col0(), tile.row0(), tile.width());
+        return new Inputs(codes, idx, geom);
+    }
+
+    /**
+     * Runs one tile of one variant. For a scenario, each cell's baseline material is changed by
+     * each change whose candidate test it passes and whose adoption cut its unit falls under.
+     *
+     * @param variant the variant (null or the baseline: no change)
+     * @param units   per grid cell, its adoption unit (building or cell), null without scenarios
+     * @param roofs   per grid cell, whether it is a roof
+     */
+    public static TileOutput run(TileSpec tile, TileJobSpec spec, ScenarioVariant variant, int[] units,
+            java.util.BitSet roofs) {
+        long t0 = System.nanoTime();
+        Inputs in = inputs(tile, spec);
+        int[] codes = in.codes();
+        int[] idx = in.materialIndex();
+        TileSimulation.Geometry geom = in.geometry();
         int[] district = spec.districts().isEmpty() ? null : Districts.assign(spec.districts(), spec.grid(),
                 tile.col0(), tile.row0(), tile.width(), tile.height());
         Material[] palette = spec.palette();

@@ -29,7 +29,8 @@ final class ObserveCommand implements Callable<Integer> {
     @Option(names = "--calibrate", paramLabel = "KEYS",
             description = "also fit these material parameters to the images (comma-separated: albedo, emissivity, "
                     + "moisture_availability, anthropogenic_heat) for every material that dominates an observed "
-                    + "pixel; writes observed/calibrated_materials.yaml and observed/calibration.csv")
+                    + "pixel; writes observed/calibrated_materials.yaml, observed/calibration.csv and "
+                    + "observed/calibration.parquet")
     String calibrate;
 
     @Option(names = "--run-file", paramLabel = "RUN.yaml",
@@ -56,25 +57,24 @@ final class ObserveCommand implements Callable<Integer> {
             prepared = org.thermotile.jobs.city.RunPreparer.prepare(
                     org.thermotile.jobs.config.RunFileReader.read(runFile));
         }
-        java.util.List<Observe.ImageResult> results;
         try (SparkSession spark = SparkSessions.get(null, 0)) {
-            results = Observe.run(spark, runDir, set);
+            java.util.List<Observe.ImageResult> results = Observe.run(spark, runDir, set);
             for (Observe.ImageResult r : results) {
                 System.out.printf(Locale.ROOT, "%s: %d pixels, bias %.2f K, RMSE %.2f K, MAE %.2f K, r %.3f%n",
                         r.name(), r.all().count(), r.all().bias(), r.all().rmse(), r.all().mae(), r.all().pearson());
             }
-        }
-        if (keys != null) {
-            System.out.println("calibrating " + String.join(", ", keys) + " (plain Java over a stratified sample)…");
-            var fit = org.thermotile.jobs.observe.Calibrate.run(runDir, prepared,
-                    results.stream().map(org.thermotile.jobs.observe.Calibrate.ObserveResultView::of).toList(), keys);
-            for (var e : fit.estimates()) {
-                System.out.printf(Locale.ROOT, "  %s %s: %.4f -> %.4f +/- %.4f%s%n",
-                        fit.palette()[e.parameter().material()].id(), e.parameter().key(), e.start(), e.value(),
-                        e.standardError(), e.identifiable() ? "" : "  WARNING: not identifiable (" + e.why() + ")");
+            if (keys != null) {
+                System.out.println("calibrating " + String.join(", ", keys) + "…");
+                var fit = org.thermotile.jobs.observe.Calibrate.run(spark, runDir, prepared,
+                        org.thermotile.jobs.observe.Calibrate.ObserveResultView.of(results, set), keys, System.out);
+                for (var e : fit.estimates()) {
+                    System.out.printf(Locale.ROOT, "  %s %s: %.4f -> %.4f +/- %.4f%s%n",
+                            fit.palette()[e.parameter().material()].id(), e.parameter().key(), e.start(), e.value(),
+                            e.standardError(), e.identifiable() ? "" : "  WARNING: not identifiable (" + e.why() + ")");
+                }
+                System.out.printf(Locale.ROOT, "  sample RMSE %.2f K -> %.2f K (%d evaluations)%n", fit.rmseBeforeK(),
+                        fit.rmseAfterK(), fit.evaluations());
             }
-            System.out.printf(Locale.ROOT, "  sample RMSE %.2f K -> %.2f K (%d kernel runs)%n", fit.rmseBeforeK(),
-                    fit.rmseAfterK(), fit.evaluations());
         }
         System.out.println("comparison written to " + runDir.resolve("observed")
                 + " (agreement.csv, pairs.csv, difference_*.tif, CAUTIONS.txt)");

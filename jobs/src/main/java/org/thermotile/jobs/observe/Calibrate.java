@@ -1,22 +1,39 @@
 package org.thermotile.jobs.observe;
 
+import java.io.PrintStream;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
+import java.util.Arrays;
 import java.util.List;
 import java.util.Locale;
+import org.apache.spark.sql.SparkSession;
 import org.thermotile.jobs.city.PreparedRun;
 import org.thermotile.jobs.errors.UserInputException;
 import org.thermotile.model.forcing.Forcing;
 import org.thermotile.model.materials.Material;
 import org.thermotile.model.observe.Calibration;
+import org.thermotile.model.observe.PixelCells;
+import org.thermotile.model.observe.PixelFootprints;
+import org.thermotile.model.observe.PixelSimulation;
 
 /**
  * Calibration of a finished run's materials against the images the comparison read
- * ({@link Observe#run}): pixels labelled by their dominant material, the run's forcing and kernel
- * settings, then {@link Calibration#fit} (plain Java on the driver over a stratified sample of
- * pixels; no Spark job per evaluation in this version) and {@link CalibrationFiles}. Writes
- * {@code RUN_DIR/observed/calibrated_materials.yaml} and {@code RUN_DIR/observed/calibration.csv}.
+ * ({@link Observe#run}).
+ *
+ * <p><b>Sample.</b> Every observed pixel is labelled by its dominant material (the palette entry
+ * covering most of its footprint); a <em>stratified random sample by dominant material, equal
+ * allocation</em> (up to {@link #PER_STRATUM} pixels per material, without replacement, fixed seed
+ * {@link #SEED}; {@link Calibration#stratifiedSample}) is drawn over all images. Each sampled pixel
+ * is simulated as its real footprint: the run's own cells under it (their materials, sky view
+ * factor and cast shadows, through the city job's {@link org.thermotile.jobs.city.TileTask#inputs}
+ * and the tile kernel), averaged with the overlap areas the comparison uses.
+ *
+ * <p><b>Evaluations.</b> Each evaluation of the objective is one Spark job over partitions of the
+ * sampled pixels ({@link CalibrationJob}); the optimiser, the uncertainty and the files are on the
+ * driver ({@link Calibration#fit}, {@link CalibrationFiles}). Writes
+ * {@code RUN_DIR/observed/calibrated_materials.yaml}, {@code RUN_DIR/observed/calibration.csv} and
+ * {@code RUN_DIR/observed/calibration.parquet} (the CSV's rows, typed).
  */
 public final class Calibrate {
     private Calibrate() {}
@@ -27,6 +44,14 @@ public final class Calibrate {
     public static final long SEED = 20260714L;
     /** Cap on kernel runs of the optimiser. */
     public static final int MAX_EVALUATIONS = 600;
+    /** A progress line every this many evaluations (and the first). */
+    static final int PROGRESS_EVERY = 10;
+
+    /** The sampling, as the outputs name it. */
+    public static String samplingLabel() {
+        return "stratified random sample by dominant material, equal allocation (up to " + PER_STRATUM
+                + " pixels per material, without replacement), seed " + SEED;
+    }
 
     /**
      * Parses {@code albedo,moisture_availability} into keys.
@@ -48,38 +73,52 @@ public final class Calibrate {
         return out;
     }
 
+    /** What the sample and its simulation are, before any evaluation. */
+    record Sample(Material[] palette, List<Calibration.Parameter> free, int[] sample, double[][] observedK,
+            List<PixelCells> cells, PixelSimulation simulation) {}
+
     /**
-     * Fits {@code keys} for every material that dominates an observed pixel.
+     * Draws the sample and reads each sampled pixel's cells (no evaluation yet).
      *
      * @param run     the run prepared again from its run file
      * @param results the comparison's results (one per image)
      */
-    public static Calibration.Fit run(Path runDir, PreparedRun run, List<ObserveResultView> results, List<String> keys) {
+    static Sample sample(Path runDir, PreparedRun run, List<ObserveResultView> results, List<String> keys) {
         Material[] palette = run.spec().palette();
         Forcing forcing = run.spec().forcing();
+        int[] gridMaterials = CalibrationSample.gridMaterials(run.spec());
         // One pixel list per image, concatenated: pixel j of image i is index offset_i + j.
-        int total = 0;
+        List<PixelFootprints.Footprint> footprints = new ArrayList<>();
+        List<double[]> observedPerImage = new ArrayList<>();
         for (ObserveResultView r : results) {
-            total += r.observed().length;
+            List<PixelFootprints.Footprint> f = CalibrationSample.footprints(r.imageFile(), run.grid());
+            if (f.size() != r.observed().length) {
+                throw new IllegalStateException(r.imageFile() + ": " + f.size() + " footprints for "
+                        + r.observed().length + " compared pixels");
+            }
+            footprints.addAll(f);
+            observedPerImage.add(r.observed());
         }
+        int total = footprints.size();
         int[] dominant = new int[total];
         double[][] observed = new double[results.size()][total];
         double[] hours = new double[results.size()];
         boolean[] used = new boolean[palette.length];
         int off = 0;
         for (int i = 0; i < results.size(); i++) {
-            ObserveResultView r = results.get(i);
-            java.util.Arrays.fill(observed[i], Double.NaN);
-            hours[i] = hourOf(forcing, r.time().getEpochSecond());
-            for (int j = 0; j < r.observed().length; j++) {
-                int m = indexOf(palette, r.dominantMaterial()[j]);
-                dominant[off + j] = m;
-                observed[i][off + j] = r.observed()[j];
-                if (m >= 0 && !Double.isNaN(r.observed()[j])) {
-                    used[m] = true;
+            double[] o = observedPerImage.get(i);
+            Arrays.fill(observed[i], Double.NaN);
+            hours[i] = hourOf(forcing, results.get(i).time().getEpochSecond());
+            for (int j = 0; j < o.length; j++) {
+                int p = off + j;
+                observed[i][p] = o[j];
+                dominant[p] = Double.isNaN(o[j]) ? -1
+                        : CalibrationSample.dominant(footprints.get(p), gridMaterials, palette.length);
+                if (dominant[p] >= 0) {
+                    used[dominant[p]] = true;
                 }
             }
-            off += r.observed().length;
+            off += o.length;
         }
         List<Calibration.Parameter> free = new ArrayList<>();
         for (int m = 0; m < palette.length; m++) {
@@ -93,14 +132,44 @@ public final class Calibrate {
             throw new UserInputException(runDir + ": no observed pixel has a simulated material; fix: give images "
                     + "that cover the run's area");
         }
-        Calibration.Fit fit;
         try {
-            fit = Calibration.fit(palette, free, new Calibration.Observed(dominant, hours, observed), forcing,
-                    run.spec().settings(), PER_STRATUM, SEED, MAX_EVALUATIONS);
+            Calibration.Observed obs = new Calibration.Observed(dominant, hours, observed);
+            int[] sample = Calibration.stratifiedSample(obs, palette.length, PER_STRATUM, SEED);
+            List<PixelCells> cells = new ArrayList<>(sample.length);
+            for (int p : sample) {
+                cells.add(CalibrationSample.cells(footprints.get(p), run.spec()));
+            }
+            PixelSimulation sim = new PixelSimulation(forcing, run.spec().settings(), hours);
+            return new Sample(palette, free, sample, Calibration.observedOf(obs, sample), cells, sim);
         } catch (IllegalArgumentException e) {
             throw new UserInputException(runDir + ": calibration: " + e.getMessage() + " (if the run file or the "
                     + "times are in question: --run-file must be this run's run file, and the images' times must lie "
                     + "in its kept hours)");
+        }
+    }
+
+    /**
+     * Fits {@code keys} for every material that dominates an observed pixel, each evaluation a
+     * Spark job over the sampled pixels; progress (evaluation n, RMSE) goes to {@code console}.
+     *
+     * @param run     the run prepared again from its run file
+     * @param results the comparison's results (one per image)
+     */
+    public static Calibration.Fit run(SparkSession spark, Path runDir, PreparedRun run,
+            List<ObserveResultView> results, List<String> keys, PrintStream console) {
+        Sample s = sample(runDir, run, results, keys);
+        console.printf(Locale.ROOT, "  %s: %d pixels, %d parameters, each evaluation a Spark job over their cells "
+                + "(%d forcing hours)%n", samplingLabel(), s.sample().length, s.free().size(), s.simulation().hours());
+        Calibration.Progress progress = (n, rmse, best) -> {
+            if (n == 1 || n % PROGRESS_EVERY == 0) {
+                console.printf(Locale.ROOT, "  evaluation %d: RMSE %.3f K (best %.3f K)%n", n, rmse, best);
+            }
+        };
+        Calibration.Fit fit;
+        try (CalibrationJob job = new CalibrationJob(spark, s.simulation(), s.cells())) {
+            fit = Calibration.fit(s.palette(), s.free(), s.sample(), s.observedK(), job, MAX_EVALUATIONS, progress);
+        } catch (IllegalArgumentException e) {
+            throw new UserInputException(runDir + ": calibration: " + e.getMessage());
         }
         Path dir = runDir.resolve("observed");
         try {
@@ -112,26 +181,28 @@ public final class Calibrate {
         CalibrationFiles.writeMaterials(dir.resolve("calibrated_materials.yaml"), fit,
                 "observations " + String.join(", ", names));
         CalibrationFiles.writeStatistics(dir.resolve("calibration.csv"), fit);
+        CalibrationFiles.writeParquet(spark, dir.resolve("calibration.parquet"), fit);
         return fit;
     }
 
-    /** What calibration needs of one compared image. */
-    public record ObserveResultView(String name, java.time.Instant time, double[] observed, String[] dominantMaterial) {
-        public static ObserveResultView of(Observe.ImageResult r) {
-            return new ObserveResultView(r.name(), r.time(), r.observed(), r.dominantMaterial());
-        }
-    }
-
-    private static int indexOf(Material[] palette, String id) {
-        if (id == null) {
-            return -1;
-        }
-        for (int i = 0; i < palette.length; i++) {
-            if (palette[i].id().equals(id)) {
-                return i;
+    /** What calibration needs of one compared image: its observed values [K] per pixel and its file. */
+    public record ObserveResultView(String name, java.time.Instant time, double[] observed, Path imageFile) {
+        /** The result of comparing {@code image} (the same entry of the observation set). */
+        public static ObserveResultView of(Observe.ImageResult r, ObservationSet.Image image) {
+            if (!r.name().equals(image.name())) {
+                throw new IllegalArgumentException("result " + r.name() + " is not of image " + image.name());
             }
+            return new ObserveResultView(r.name(), r.time(), r.observed(), image.file());
         }
-        return -1;
+
+        /** Each result with its image, in the set's order. */
+        public static List<ObserveResultView> of(List<Observe.ImageResult> results, ObservationSet set) {
+            List<ObserveResultView> out = new ArrayList<>();
+            for (int i = 0; i < results.size(); i++) {
+                out.add(of(results.get(i), set.images().get(i)));
+            }
+            return out;
+        }
     }
 
     /** Fractional forcing-hour index of an instant [s since 1970]. */

@@ -5,10 +5,20 @@ import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.nio.file.StandardCopyOption;
+import java.util.ArrayList;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Locale;
 import java.util.Map;
+import org.apache.spark.sql.Row;
+import org.apache.spark.sql.RowFactory;
+import org.apache.spark.sql.SaveMode;
+import org.apache.spark.sql.SparkSession;
+import org.apache.spark.sql.types.DataTypes;
+import org.apache.spark.sql.types.StructType;
+import org.thermotile.jobs.storage.CanonicalParquet;
+import org.thermotile.jobs.storage.Folders;
+import org.thermotile.jobs.storage.OutputStore;
 import org.thermotile.model.materials.Material;
 import org.thermotile.model.materials.MaterialLibrary;
 import org.thermotile.model.observe.Calibration;
@@ -18,7 +28,7 @@ import org.thermotile.model.observe.Calibration;
  * {@link org.thermotile.jobs.io.MaterialsFile} reads (one entry per calibrated material, with the
  * material's own id and {@code base}, so that it replaces the library entry when merged), and a CSV of
  * the parameters (start, fitted value, standard error from the curvature, identifiable or not) and
- * the sample's RMSE and bias before and after.
+ * the sample's RMSE and bias before and after (also as {@code calibration.parquet}).
  *
  * <p>A parameter reported as not identifiable keeps its starting value in the materials file (a
  * comment says so): the data do not support moving it. Only materials of the built-in library can
@@ -88,12 +98,58 @@ public final class CalibrationFiles {
                     .append(num(e.standardError())).append(',').append(e.identifiable()).append(',')
                     .append(quote(e.why())).append('\n');
         }
-        String sample = "sample of " + fit.sample().length + " pixels, " + fit.residuals() + " residuals";
+        String sample = Calibrate.samplingLabel() + ": " + fit.sample().length + " pixels, " + fit.residuals()
+                + " residuals";
         b.append("rmse_k,,").append(num(fit.rmseBeforeK())).append(',').append(num(fit.rmseAfterK()))
                 .append(",,,").append(quote(sample)).append('\n');
         b.append("bias_k,,").append(num(fit.biasBeforeK())).append(',').append(num(fit.biasAfterK()))
                 .append(",,,").append(quote("simulated minus observed")).append('\n');
         publish(file, b.toString());
+    }
+
+    /** Schema of {@code calibration.parquet}: the CSV's columns, typed. */
+    public static final StructType PARQUET_SCHEMA = new StructType()
+            .add("quantity", DataTypes.StringType, false)
+            .add("material", DataTypes.StringType, true)
+            .add("before", DataTypes.DoubleType, false)
+            .add("after", DataTypes.DoubleType, false)
+            .add("standard_error", DataTypes.DoubleType, true)
+            .add("identifiable", DataTypes.BooleanType, true)
+            .add("note", DataTypes.StringType, true);
+
+    /**
+     * Writes the rows of the statistics CSV as a Parquet table (one part file, canonical name and
+     * footer): staged beside {@code dir} and renamed into place, so a failure leaves none. A
+     * standard error that is not finite (a parameter the data do not constrain) is stored as
+     * +Infinity, as the CSV's {@code inf}.
+     */
+    public static void writeParquet(SparkSession spark, Path dir, Calibration.Fit fit) {
+        List<Row> rows = new ArrayList<>();
+        for (Calibration.Estimate e : fit.estimates()) {
+            rows.add(RowFactory.create(e.parameter().key(), fit.palette()[e.parameter().material()].id(), e.start(),
+                    e.value(), e.standardError(), e.identifiable(), e.why().isEmpty() ? null : e.why()));
+        }
+        rows.add(RowFactory.create("rmse_k", null, fit.rmseBeforeK(), fit.rmseAfterK(), null, null,
+                Calibrate.samplingLabel() + ": " + fit.sample().length + " pixels, " + fit.residuals() + " residuals"));
+        rows.add(RowFactory.create("bias_k", null, fit.biasBeforeK(), fit.biasAfterK(), null, null,
+                "simulated minus observed"));
+        Path tmp = dir.resolveSibling("." + dir.getFileName() + ".tmp");
+        try {
+            Folders.deleteQuietly(tmp);
+            spark.createDataFrame(rows, PARQUET_SCHEMA).coalesce(1).write().mode(SaveMode.ErrorIfExists)
+                    .parquet(OutputStore.sparkUri(tmp));
+            CanonicalParquet.renameParts(tmp);
+            if (Files.exists(dir)) {
+                Folders.deleteTree(dir);
+            }
+            Files.move(tmp, dir);
+        } catch (IOException e) {
+            Folders.deleteQuietly(tmp);
+            throw new java.io.UncheckedIOException("cannot write " + dir, e);
+        } catch (RuntimeException e) {
+            Folders.deleteQuietly(tmp);
+            throw e;
+        }
     }
 
     private static String num(double v) {

@@ -206,9 +206,9 @@ class ObserveTest {
         var set = ObservationSet.read(observations("cal", """
                   - {file: cal.tif, time: "2026-07-15T12:00:00Z", nodata: -9999}
                 """));
-        var views = Observe.run(spark, out, set).stream()
-                .map(org.thermotile.jobs.observe.Calibrate.ObserveResultView::of).toList();
-        var fit = org.thermotile.jobs.observe.Calibrate.run(out, prepared, views, List.of("albedo"));
+        var views = org.thermotile.jobs.observe.Calibrate.ObserveResultView.of(Observe.run(spark, out, set), set);
+        PrintStream quiet = new PrintStream(PrintStream.nullOutputStream());
+        var fit = org.thermotile.jobs.observe.Calibrate.run(spark, out, prepared, views, List.of("albedo"), quiet);
         String d = fit.estimates() + " RMSE " + fit.rmseBeforeK() + " -> " + fit.rmseAfterK();
         assertFalse(fit.estimates().isEmpty(), d);
         assertTrue(fit.rmseAfterK() <= fit.rmseBeforeK() + 1e-9, d);
@@ -218,7 +218,7 @@ class ObserveTest {
         String csv = Files.readString(out.resolve("observed/calibration.csv"));
         assertTrue(csv.startsWith("quantity,material,before,after,standard_error,identifiable,note\n"), csv);
         String y1 = Files.readString(yaml);
-        org.thermotile.jobs.observe.Calibrate.run(out, prepared, views, List.of("albedo"));
+        org.thermotile.jobs.observe.Calibrate.run(spark, out, prepared, views, List.of("albedo"), quiet);
         assertEquals(y1, Files.readString(yaml), "same inputs, same calibrated file");
         assertEquals(csv, Files.readString(out.resolve("observed/calibration.csv")));
         assertThrows(UserInputException.class, () -> org.thermotile.jobs.observe.Calibrate.keys("albedo,albdo"));

@@ -58,6 +58,8 @@ class CalibrationFilesTest {
         assertEquals("albedo,asphalt_aged,0.120000,0.203100,0.00280000,true,", lines.get(1));
         assertTrue(lines.get(2).startsWith("moisture_availability,grass_irrigated,0.900000,0.310000,inf,false,"),
                 lines.get(2));
-        assertEquals("rmse_k,,2.30000,0.480000,,,\"sample of 3 pixels, 6 residuals\"", lines.get(3));
+        assertEquals("rmse_k,,2.30000,0.480000,,,\"stratified random sample by dominant material, equal allocation "
+                + "(up to 30 pixels per material, without replacement), seed 20260714: 3 pixels, 6 residuals\"",
+                lines.get(3));
     }
 }

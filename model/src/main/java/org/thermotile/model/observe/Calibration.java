@@ -21,7 +21,6 @@ import org.apache.commons.math3.optim.univariate.BrentOptimizer;
 import org.apache.commons.math3.optim.univariate.SearchInterval;
 import org.apache.commons.math3.optim.univariate.UnivariateObjectiveFunction;
 import org.apache.commons.math3.optim.univariate.UnivariatePointValuePair;
-import org.thermotile.model.constants.Physical;
 import org.thermotile.model.forcing.Forcing;
 import org.thermotile.model.materials.Material;
 import org.thermotile.model.materials.MaterialProperty;
@@ -34,10 +33,13 @@ import org.thermotile.model.tile.TileSimulation;
  * on a sample of pixels, and an uncertainty per parameter from the curvature at the optimum.
  *
  * <p><b>Objective.</b> S(p) = Σ_i Σ_k (T_sim,ik(p) − T_obs,ik)² [K²] over the sampled pixels i and
- * the observation hours k where the pixel has an observation. Each sampled pixel is simulated as
- * one cell of its dominant material, on flat open ground (no urban geometry, sub-pixel mixing
- * ignored in this version), in plain Java on the calling thread: one {@link TileSimulation#run}
- * per evaluation over all sampled cells, with the candidate palette.
+ * the observation hours k where the pixel has an observation. Each evaluation asks a
+ * {@link Simulator} for the sampled pixels' temperatures under the candidate palette: normally
+ * {@link PixelSimulation} over each pixel's own cells ({@link PixelCells}: their materials and urban
+ * geometry, area-weighted as in the comparison), on the calling thread ({@link #local}) or as a
+ * Spark job over partitions of pixels (in jobs/). {@link #fit(Material[], List, Observed, Forcing,
+ * TileSimulation.Settings, int, long, int)} keeps the simplest form: each pixel one flat cell of its
+ * dominant material.
  *
  * <p><b>Sampling.</b> Stratified random sampling by dominant material with equal allocation and
  * a fixed seed: from each material's pixels that carry at least one observation, up to
@@ -49,7 +51,10 @@ import org.thermotile.model.tile.TileSimulation;
  * parameters the fit is Powell's BOBYQA (Powell 2009, "The BOBYQA algorithm for bound constrained
  * optimization without derivatives", Cambridge DAMTP 2009/NA06; Commons Math 3.6.1
  * {@link BOBYQAOptimizer}, 2n + 1 interpolation points); with one parameter, Brent's bounded
- * minimisation (Brent 1973, Algorithms for Minimization without Derivatives, ch. 5).
+ * minimisation (Brent 1973, Algorithms for Minimization without Derivatives, ch. 5). BOBYQA's trust
+ * region starts at 0.1 and stops at 1e-4 of each bound range (an albedo to 1e-4: far finer than any
+ * image constrains it), which keeps the evaluations to a few per parameter beyond the 2n + 1 of the
+ * initial model.
  *
  * <p><b>Uncertainty (from the curvature).</b> The Jacobian J_ij = ∂r_i/∂p_j of the residuals
  * r = T_sim − T_obs is taken by central finite differences at the optimum (one-sided at a
@@ -59,10 +64,15 @@ import org.thermotile.model.tile.TileSimulation;
  * eq. 2.26–2.27, from memory). (JᵀJ)⁻¹ is the SVD pseudo-inverse with singular values below
  * 1e-10 of the largest treated as zero. A parameter is <em>not identifiable</em> when its column of
  * J is ~0 (norm below 1e-8 of the largest column's), when it lies in the null space of JᵀJ, or when
- * its SE exceeds its bound range.
+ * its approximate 95 % interval p̂ ± 1.96·SE (Wald, normal theory) is wider than its bound range:
+ * the data then leave it anywhere within the bounds. The fitted point is the best evaluated (the
+ * start included), so a fit never reports a higher RMSE than its start.
  */
 public final class Calibration {
     private Calibration() {}
+
+    /** Two-sided 95 % quantile of the standard normal distribution (Wald interval ± z·SE). */
+    static final double Z95 = 1.959964;
 
     /** Keys a calibration may move, as in {@link MaterialOverrides}. */
     public static final List<String> KEYS = MaterialProperty.keys(MaterialProperty.SURFACE);
@@ -189,8 +199,36 @@ public final class Calibration {
         return false;
     }
 
+    /** The sampled pixels' simulated temperatures for a candidate palette. */
+    @FunctionalInterface
+    public interface Simulator {
+        /** [sampled pixel][observation] simulated surface temperature [K] (NaN where none). */
+        double[][] simulate(Material[] palette);
+    }
+
+    /** Told after each evaluation of the objective. */
+    @FunctionalInterface
+    public interface Progress {
+        /**
+         * @param evaluation 1, 2, … (fit and Jacobian alike)
+         * @param rmseK      this evaluation's RMSE over the sample [K]
+         * @param bestRmseK  the lowest RMSE so far [K]
+         */
+        void evaluated(int evaluation, double rmseK, double bestRmseK);
+
+        /** Tells nothing. */
+        Progress NONE = (n, r, b) -> {};
+    }
+
+    /** A simulator running {@code sim} over {@code pixels} on the calling thread. */
+    public static Simulator local(PixelSimulation sim, List<PixelCells> pixels) {
+        List<PixelCells> copy = List.copyOf(pixels);
+        return palette -> sim.simulate(palette, copy);
+    }
+
     /**
-     * Fits {@code free} to the observations.
+     * Fits {@code free} to the observations, each sampled pixel simulated as one flat cell of its
+     * dominant material on the calling thread.
      *
      * @param palette    the starting materials (e.g. the library's values)
      * @param free       the parameters that may move (two need not share a material)
@@ -206,11 +244,45 @@ public final class Calibration {
      */
     public static Fit fit(Material[] palette, List<Parameter> free, Observed obs, Forcing forcing,
             TileSimulation.Settings settings, int perStratum, long seed, int maxEvaluations) {
+        int[] sample = stratifiedSample(obs, palette.length, perStratum, seed);
+        List<PixelCells> cells = new ArrayList<>();
+        for (int p : sample) {
+            cells.add(PixelCells.flat(obs.dominant()[p]));
+        }
+        PixelSimulation sim = new PixelSimulation(forcing, settings, obs.hours());
+        return fit(palette, free, sample, observedOf(obs, sample), local(sim, cells), maxEvaluations, Progress.NONE);
+    }
+
+    /** [observation][sampled pixel] observed [K] of {@code sample}. */
+    public static double[][] observedOf(Observed obs, int[] sample) {
+        double[][] o = new double[obs.hours().length][sample.length];
+        for (int k = 0; k < o.length; k++) {
+            for (int i = 0; i < sample.length; i++) {
+                o[k][i] = obs.observedK()[k][sample[i]];
+            }
+        }
+        return o;
+    }
+
+    /**
+     * Fits {@code free} to the sampled pixels' observations.
+     *
+     * @param palette        the starting materials
+     * @param free           the parameters that may move
+     * @param sample         the sampled pixels' indices (reported in the fit)
+     * @param observedK      [observation][sampled pixel] observed [K], NaN where not observed
+     * @param simulator      the sampled pixels' temperatures for a palette, in the same order
+     * @param maxEvaluations cap on evaluations for the optimiser
+     * @param progress       told after each evaluation
+     * @throws IllegalArgumentException when nothing is free, the sample has no observation, or the
+     *                                  optimiser does not converge within the cap
+     */
+    public static Fit fit(Material[] palette, List<Parameter> free, int[] sample, double[][] observedK,
+            Simulator simulator, int maxEvaluations, Progress progress) {
         if (free.isEmpty()) {
             throw new IllegalArgumentException("choose at least one parameter to calibrate");
         }
-        int[] sample = stratifiedSample(obs, palette.length, perStratum, seed);
-        Problem pr = new Problem(palette, free, obs, forcing, settings, sample);
+        Problem pr = new Problem(palette, free, observedK, simulator, sample, progress);
         int n = free.size();
         double[] u0 = new double[n];
         double[] start = new double[n];
@@ -226,6 +298,11 @@ public final class Calibration {
         } catch (org.apache.commons.math3.exception.TooManyEvaluationsException e) {
             throw new IllegalArgumentException("the fit of " + n + " parameters did not converge within "
                     + maxEvaluations + " kernel runs; calibrate fewer parameters (keys or materials) at once");
+        }
+        // The best point evaluated, the start included: BOBYQA may shift a start lying within its
+        // initial trust radius of a bound, and its last point need not be the best seen.
+        if (pr.bestU != null && pr.bestSum < sumSquares(pr.residualsSeen(uBest))) {
+            uBest = pr.bestU.clone();
         }
         return finish(pr, free, start, r0, uBest);
     }
@@ -243,8 +320,8 @@ public final class Calibration {
             double[] lower = new double[n];
             double[] upper = new double[n];
             Arrays.fill(upper, 1.0);
-            // Start the trust region at 0.1 of the bound range, stop at 1e-6 of it.
-            PointValuePair best = new BOBYQAOptimizer(2 * n + 1, 0.1, 1e-6).optimize(new MaxEval(maxEvaluations),
+            // Start the trust region at 0.1 of the bound range, stop at 1e-4 of it.
+            PointValuePair best = new BOBYQAOptimizer(2 * n + 1, 0.1, 1e-4).optimize(new MaxEval(maxEvaluations),
                     new ObjectiveFunction(f), GoalType.MINIMIZE, new InitialGuess(u0), new SimpleBounds(lower, upper));
             uBest = best.getPoint();
         }
@@ -326,8 +403,9 @@ public final class Calibration {
             } else if (nullWeight[c] > 1e-6) {
                 why = "the observations constrain it only together with other parameters (JᵀJ is singular)";
                 se = Double.POSITIVE_INFINITY;
-            } else if (!(se <= range)) {
-                why = "its standard error " + se + " exceeds its bound range " + range;
+            } else if (!(2 * Z95 * se <= range)) {
+                why = String.format(java.util.Locale.ROOT, "its approximate 95 %% interval (± %.3g) is wider than "
+                        + "its bound range %.3g", Z95 * se, range);
             }
             out.add(new Estimate(p, start[c], value[c], se, why.isEmpty(), why));
         }
@@ -354,62 +432,54 @@ public final class Calibration {
         return r.length == 0 ? Double.NaN : s / r.length;
     }
 
-    /** The sample's cells and observed values, and a kernel run per candidate. */
+    /** The sample's observed values, and one simulation per candidate. */
     private static final class Problem {
         private final Material[] base;
         private final List<Parameter> free;
-        private final Forcing forcing;
-        private final TileSimulation.Settings settings;
-        private final int[] cells;
-        /** [observation][sampled cell] observed [K]. */
+        private final Simulator simulator;
+        private final Progress progress;
+        /** [observation][sampled pixel] observed [K]. */
         private final double[][] observed;
-        /** Per observation: index of its earlier hour in the kernel's hourly outputs, and the weight of the later. */
-        private final int[] output0;
-        private final double[] weight1;
         private final int residuals;
         final int[] sample;
         int evaluations;
+        double best = Double.POSITIVE_INFINITY;
+        double bestSum = Double.POSITIVE_INFINITY;
+        double[] bestU;
+        private double[] lastU;
+        private double[] lastR;
 
-        Problem(Material[] base, List<Parameter> free, Observed obs, Forcing forcing, TileSimulation.Settings s,
-                int[] sample) {
+        /** Residuals at {@code u}, reusing the last evaluation when it was at {@code u}. */
+        double[] residualsSeen(double[] u) {
+            return lastU != null && Arrays.equals(lastU, u) ? lastR : residuals(u);
+        }
+
+        Problem(Material[] base, List<Parameter> free, double[][] observedK, Simulator simulator, int[] sample,
+                Progress progress) {
             this.base = base.clone();
             this.free = List.copyOf(free);
-            this.forcing = forcing;
-            for (double h : obs.hours()) {
-                if (!(h >= s.firstSampleHour() && h <= forcing.hours() - 1)) {
-                    throw new IllegalArgumentException("observation hour " + h + " is outside the sampled hours "
-                            + s.firstSampleHour() + " … " + (forcing.hours() - 1) + " of the forcing (spin-up excluded)");
-                }
-            }
+            this.simulator = simulator;
+            this.progress = progress;
             for (Parameter p : free) {
                 if (p.material() < 0 || p.material() >= base.length) {
                     throw new IllegalArgumentException("calibration parameter " + p.key() + " names material "
                             + p.material() + ", outside the palette of " + base.length);
                 }
             }
-            // Hourly outputs: for each observation its hour and the next (the last hour pairs with itself).
-            int nObs = obs.hours().length;
-            int[] outHours = new int[2 * nObs];
-            output0 = new int[nObs];
-            weight1 = new double[nObs];
-            for (int k = 0; k < nObs; k++) {
-                int h0 = (int) Math.min(Math.floor(obs.hours()[k]), forcing.hours() - 1);
-                outHours[2 * k] = h0;
-                outHours[2 * k + 1] = Math.min(h0 + 1, forcing.hours() - 1);
-                output0[k] = 2 * k;
-                weight1[k] = obs.hours()[k] - h0;
+            if (observedK.length == 0) {
+                throw new IllegalArgumentException("need one or more observations");
             }
-            this.settings = new TileSimulation.Settings(s.substepMinutes(), s.convection(), s.deepGroundK(),
-                    s.firstSampleHour(), s.thresholdK(), outHours);
             this.sample = sample.clone();
-            cells = new int[sample.length];
-            observed = new double[obs.hours().length][sample.length];
+            observed = new double[observedK.length][];
             int m = 0;
-            for (int i = 0; i < sample.length; i++) {
-                cells[i] = obs.dominant()[sample[i]];
-                for (int k = 0; k < observed.length; k++) {
-                    observed[k][i] = obs.observedK()[k][sample[i]];
-                    if (!Double.isNaN(observed[k][i])) {
+            for (int k = 0; k < observedK.length; k++) {
+                if (observedK[k].length != sample.length) {
+                    throw new IllegalArgumentException("every observation needs one value per sampled pixel ("
+                            + sample.length + ")");
+                }
+                observed[k] = observedK[k].clone();
+                for (double v : observed[k]) {
+                    if (!Double.isNaN(v)) {
                         m++;
                     }
                 }
@@ -441,18 +511,31 @@ public final class Calibration {
 
         double[] residuals(double[] u) {
             evaluations++;
-            TileSimulation.Result res = TileSimulation.run(palette(u), cells, forcing, settings);
+            double[][] sim = simulator.simulate(palette(u));
+            if (sim.length != sample.length) {
+                throw new IllegalStateException("simulator gave " + sim.length + " pixels for a sample of "
+                        + sample.length);
+            }
             double[] r = new double[residuals];
             int i = 0;
-            for (int c = 0; c < cells.length; c++) {
+            for (int c = 0; c < sample.length; c++) {
                 for (int k = 0; k < observed.length; k++) {
                     if (!Double.isNaN(observed[k][c])) {
-                        double a = res.hourlyC[output0[k]][c];
-                        double b = res.hourlyC[output0[k] + 1][c];
-                        r[i++] = a + weight1[k] * (b - a) + Physical.ZERO_CELSIUS_K - observed[k][c];
+                        // A sampled pixel has a dominant material, so its simulated value is a number.
+                        r[i++] = sim[c][k] - observed[k][c];
                     }
                 }
             }
+            double ss = sumSquares(r);
+            double rmse = Math.sqrt(ss / r.length);
+            best = Math.min(best, rmse);
+            if (ss < bestSum) {
+                bestSum = ss;
+                bestU = u.clone();
+            }
+            lastU = u.clone();
+            lastR = r;
+            progress.evaluated(evaluations, rmse, best);
             return r;
         }
     }
