@@ -182,7 +182,7 @@ public final class RunBlocks {
         }
         String zoneId = s.text("zone_id", false, "the property holding each zone's id, e.g. zone_id: block");
         if (zoneId != null && zones == null) {
-            s.doc.at(s.child("zone_id"), "zone_id without zones. Fix: add zones: FILE.geojson, or drop zone_id");
+            s.doc.at(s.child("zone_id"), "given without zones. Fix: add zones: FILE.geojson, or drop zone_id");
         }
         String w = s.text("weights", false, "one of binary, inverse_distance");
         if (zones != null && w != null && !w.equals("binary")) {

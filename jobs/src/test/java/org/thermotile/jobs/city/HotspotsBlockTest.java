@@ -74,7 +74,7 @@ class HotspotsBlockTest {
         String z = error("{zones: nowhere.geojson}");
         assertTrue(z.contains("hotspots.zones:") && z.contains("nowhere.geojson not found") && z.contains("Fix"), z);
         String id = error("{zone_id: ref}");
-        assertTrue(id.contains("hotspots.zone_id without zones") && id.contains("Fix"), id);
+        assertTrue(id.contains("hotspots.zone_id: given without zones") && id.contains("Fix"), id);
         Files.writeString(dir.resolve("blocks.geojson"), "{}");
         String w = error("{zones: blocks.geojson, weights: inverse_distance}");
         assertTrue(w.contains("zones use binary weights"), w);
