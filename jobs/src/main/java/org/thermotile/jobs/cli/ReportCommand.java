@@ -25,6 +25,7 @@ final class ReportCommand implements Callable<Integer> {
     @Override
     public Integer call() {
         RunReport.Result r = RunReport.build(runDir);
+        org.thermotile.jobs.catalogue.StacItem.writeAll(runDir);   // the catalogue entry lists the report
         PrintWriter out = spec.commandLine().getOut();
         out.println("report: " + r.html());
         out.println("  sections: " + String.join(", ", r.sections()));
