@@ -92,6 +92,11 @@ public final class OutputDescriptions {
         String[] parts = rel.split("/");
         String base = parts[parts.length - 1];
         String stem = base.contains(".") ? base.substring(0, base.indexOf('.')) : base;
+        if (base.startsWith("part-") && parts.length > 1 && !parts[parts.length - 2].contains("=")) {
+            // A part file of a small Parquet dataset (comparison/ranking.parquet/, hotspots/peak/polygons/): its folder's name.
+            String folder = parts[parts.length - 2];
+            stem = folder.contains(".") ? folder.substring(0, folder.indexOf('.')) : folder;
+        }
         String variant = variant(rel);
         if (rel.startsWith("tables/")) {
             String table = parts[1];
