@@ -70,6 +70,9 @@ public final class StacItem {
     public static void writeAll(Path dir) {
         RunLayout lay = RunLayout.of(dir);
         Path root = lay.root();
+        if (!Files.isRegularFile(root.resolve("manifest.json"))) {
+            return;   // not a run folder of ours: nothing to describe
+        }
         List<String> periods = RunLayout.periodsOf(root);
         for (String p : periods) {
             write(new RunLayout(root, p));
@@ -287,8 +290,16 @@ public final class StacItem {
         a.put("href", href);
         a.put("type", mediaType(href));
         OutputDescriptions.Entry d = OutputDescriptions.of(href.startsWith("../../") ? href.substring(6) : href);
+        GeoTiffReader opened = null;
         if (href.endsWith(".tif")) {
-            try (GeoTiffReader r = GeoTiffReader.open(dir.resolve(href))) {
+            try {
+                opened = GeoTiffReader.open(dir.resolve(href));
+            } catch (org.thermotile.jobs.io.raster.RasterFileException e) {
+                opened = null;   // listed all the same, without grid and bands (a map the run did not write)
+            }
+        }
+        if (opened != null) {
+            try (GeoTiffReader r = opened) {
                 List<String[]> bands = bandTexts(r.gdalMetadata(), r.bandCount());
                 a.put("title", d.title());
                 a.put("description", mapDescription(d.description(), bands));
