@@ -14,6 +14,7 @@ import org.apache.spark.api.java.JavaSparkContext;
 import org.apache.spark.broadcast.Broadcast;
 import org.apache.spark.sql.SparkSession;
 import org.apache.spark.storage.StorageLevel;
+import org.thermotile.jobs.catalogue.StacItem;
 import org.thermotile.jobs.errors.UserInputException;
 import org.thermotile.jobs.storage.Diagnose;
 import org.thermotile.jobs.storage.Folders;
@@ -116,6 +117,7 @@ public final class CityJob {
                 if (opt.beforePublish() != null) {
                     opt.beforePublish().accept(tmp);
                 }
+                StacItem.writeAll(tmp);   // the catalogue entry lists every file, the report's included
                 if (Files.exists(out)) {
                     deleteTree(out);
                 }
@@ -243,6 +245,7 @@ public final class CityJob {
             if (opt.beforePublish() != null) {
                 opt.beforePublish().accept(staging);
             }
+            StacItem.writeAll(staging);
             OutputStore.publish(staging, partial, target);
             return new Summary(opt.outDir(), s.cells(), s.cellHours(), s.wallSeconds(), s.cellHoursPerSecond(),
                     s.maxClosureResidual(), s.maps());

@@ -175,7 +175,8 @@ public final class Comparison {
                 try (GeoTiffReader b = GeoTiffReader.openSingleBand(base);
                         GeoTiffReader t = GeoTiffReader.openSingleBand(scen)) {
                     RasterGrid g = b.grid();
-                    GeoTiffWriter.writeFloatBlocks(scen.resolveSibling("delta_" + m + ".tif"), g, 1, CityJob.MAP_NODATA,
+                    GeoTiffWriter.writeFloatBlocks(scen.resolveSibling("delta_" + m + ".tif"), g,
+                            List.of(org.thermotile.jobs.catalogue.OutputDescriptions.delta(m)), CityJob.MAP_NODATA,
                             (band, c0, r0, w, h, out) -> {
                                 float[] x = b.readFloatWindow(c0, r0, w, h);
                                 float[] y = t.readFloatWindow(c0, r0, w, h);
@@ -183,7 +184,7 @@ public final class Comparison {
                                     float d = y[i] - x[i];
                                     out[i] = Float.isNaN(d) ? CityJob.MAP_NODATA : d;
                                 }
-                            });
+                            }, org.thermotile.jobs.io.raster.CloudOptimized.Resampling.AVERAGE);
                 }
             }
         }

@@ -36,6 +36,7 @@ final class Manifest {
             i.put("sha256", sha256(RunPreparer.localPath(e.getValue(), "inputs." + e.getKey())));
         }
         root.set("run_file", resolvedRunFile(p));
+        putTimeRange(root, java.util.List.of(p));
         putVersionsAndGrid(root, p);
         if (p.ingest() != null) {
             p.ingest().writeTo(root.putObject("working_grid"));   // how the inputs were put on the grid
@@ -113,6 +114,7 @@ final class Manifest {
         PreparedRun first = periods.get(0);
         root.put("format", "thermotile-run-manifest/1");
         root.put("name", first.run().name());
+        putTimeRange(root, periods);
         putVersionsAndGrid(root, first);
         var ps = root.putArray("periods");
         for (int i = 0; i < periods.size(); i++) {
@@ -158,6 +160,26 @@ final class Manifest {
 
     static final String CAUTION = "Surface temperature is not air temperature nor a heat-health index. "
             + "Results are estimates for comparing options; defer to local building codes and licensed professionals.";
+
+    /**
+     * The counted time of the run (all periods): from the first period's start to the last one's
+     * end, local clock time at the weather's UTC offset, written in UTC (ISO 8601, "Z"). What the
+     * catalogue entry's start_datetime and end_datetime say.
+     */
+    private static void putTimeRange(ObjectNode root, java.util.List<PreparedRun> periods) {
+        java.time.Instant start = null;
+        java.time.Instant end = null;
+        for (PreparedRun p : periods) {
+            java.time.ZoneOffset off = java.time.ZoneOffset.ofTotalSeconds(p.spec().forcing().utcOffsetSeconds);
+            java.time.Instant s = p.run().period().start().toInstant(off);
+            java.time.Instant e = p.run().period().end().toInstant(off);
+            start = start == null || s.isBefore(start) ? s : start;
+            end = end == null || e.isAfter(end) ? e : end;
+        }
+        ObjectNode t = root.putObject("time_range");
+        t.put("start", start.toString());
+        t.put("end", end.toString());
+    }
 
     /** The "versions" and "grid" blocks every manifest has. */
     private static void putVersionsAndGrid(ObjectNode root, PreparedRun p) {

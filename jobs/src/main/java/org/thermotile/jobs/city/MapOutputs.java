@@ -4,6 +4,7 @@ import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.TreeMap;
+import org.thermotile.jobs.catalogue.OutputDescriptions;
 import org.thermotile.jobs.config.RunFile;
 import org.thermotile.jobs.io.raster.CloudOptimized;
 import org.thermotile.jobs.io.raster.GeoTiffWriter;
@@ -111,8 +112,7 @@ final class MapOutputs {
                 for (int i : layer.hourlyBands()) {
                     String t = java.time.OffsetDateTime.ofInstant(java.time.Instant.ofEpochSecond(hours[i]), off)
                             .toString();
-                    bands.add(new GeoTiffWriter.Band("surface temperature at " + t, "degC",
-                            java.util.Map.of("TIME", t)));
+                    bands.add(OutputDescriptions.hourly(t));
                 }
                 GeoTiffWriter.writeFloatBlocks(mapsDir.resolve(name), grid, bands, CityJob.MAP_NODATA,
                         new Strips(grid, tileSize, layer, tiles), CloudOptimized.Resampling.AVERAGE);
@@ -122,22 +122,9 @@ final class MapOutputs {
         return written;
     }
 
-    /**
-     * Description and unit of a statistic map's band (units UDUNITS-style, ASCII: "degC" degree
-     * Celsius, "K.h" kelvin hours, "h" hours, "1" a fraction).
-     */
+    /** Description and unit of a statistic map's band: {@link OutputDescriptions#statistic}. */
     static GeoTiffWriter.Band band(String key) {
-        return switch (key) {
-            case "peak" -> new GeoTiffWriter.Band("peak surface temperature of the period", "degC");
-            case "mean" -> new GeoTiffWriter.Band("mean surface temperature of the period", "degC");
-            case "night_min" -> new GeoTiffWriter.Band("lowest night-time surface temperature", "degC");
-            case "peak_hour" -> new GeoTiffWriter.Band("local clock hour of the peak surface temperature", "h");
-            case "degree_hours" -> new GeoTiffWriter.Band("degree-hours of surface temperature above the threshold", "K.h");
-            case "hours_above" -> new GeoTiffWriter.Band("hours with surface temperature above the threshold", "h");
-            case "sky_view_factor" -> new GeoTiffWriter.Band("sky view factor", "1");
-            case "shaded_hours" -> new GeoTiffWriter.Band("sun hours lost to cast shadows", "h");
-            default -> throw new IllegalArgumentException("no band description for " + key);
-        };
+        return OutputDescriptions.statistic(key);
     }
 
     /** A tile's values as float32, NaN (no material) as the map's no-data value. */

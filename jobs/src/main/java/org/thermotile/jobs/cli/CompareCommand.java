@@ -45,6 +45,7 @@ final class CompareCommand implements Callable<Integer> {
                 Comparison.writeAcrossPeriods(spark, runDir, periods);
             }
         }
+        org.thermotile.jobs.catalogue.StacItem.writeAll(runDir);   // the catalogue entry lists the new files
         System.out.println("comparison written to " + cmp + " (summary.md, ranking.csv, districts.csv)");
         return 0;
     }

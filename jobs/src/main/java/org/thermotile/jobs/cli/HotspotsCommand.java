@@ -159,6 +159,7 @@ public final class HotspotsCommand implements Callable<Integer> {
         } finally {
             spark.stop();
         }
+        org.thermotile.jobs.catalogue.StacItem.writeAll(runDir);   // the catalogue entry lists the new files
         return 0;
     }
 

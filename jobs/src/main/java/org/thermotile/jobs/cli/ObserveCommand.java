@@ -76,6 +76,7 @@ final class ObserveCommand implements Callable<Integer> {
                         fit.rmseAfterK(), fit.evaluations());
             }
         }
+        org.thermotile.jobs.catalogue.StacItem.writeAll(runDir);   // the catalogue entry lists the new files
         System.out.println("comparison written to " + runDir.resolve("observed")
                 + " (agreement.csv, pairs.csv, difference_*.tif, CAUTIONS.txt)");
         System.out.println("Surface temperature is not air temperature, nor a heat-health index.");

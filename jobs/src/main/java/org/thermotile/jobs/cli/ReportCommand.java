@@ -31,6 +31,7 @@ final class ReportCommand implements Callable<Integer> {
 
     private Integer work() {
         RunReport.Result r = RunReport.build(runDir);
+        org.thermotile.jobs.catalogue.StacItem.writeAll(runDir);   // the catalogue entry lists the report
         PrintWriter out = spec.commandLine().getOut();
         out.println("report: " + r.html());
         out.println("  sections: " + String.join(", ", r.sections()));

@@ -28,6 +28,7 @@ import org.locationtech.jts.geom.Point;
 import org.opengis.referencing.operation.MathTransform;
 import org.opengis.referencing.operation.TransformException;
 import org.thermotile.jobs.errors.UserInputException;
+import org.thermotile.jobs.catalogue.OutputDescriptions;
 import org.thermotile.jobs.io.raster.GeoTiffWriter;
 import org.thermotile.jobs.io.raster.RasterGrid;
 import org.thermotile.jobs.io.raster.GeoTiffReader;
@@ -615,26 +616,31 @@ public final class Hotspots {
         table.append(CLASS_NODATA).append(" = no data");
         TiffMetadata.addAscii(bf, Map.of(
                 TiffMetadata.IMAGE_DESCRIPTION, "thermotile excess bands of " + field.statistic() + ": " + table,
-                TiffMetadata.GDAL_METADATA, TiffMetadata.gdalMetadataXml(bItems)));
+                TiffMetadata.GDAL_METADATA, TiffMetadata.gdalMetadataXml(bItems, OutputDescriptions.excessBand(
+                        field.statistic()))));
         writeFloat(tmp.resolve(EXCESS), an, ex, common, "thermotile excess over the city's median of "
-                + field.statistic() + " [K], per analysis cell; no data -9999");
+                + field.statistic() + " [K], per analysis cell; no data -9999", OutputDescriptions.excess(field.statistic()));
         writeFloat(tmp.resolve(QVALUE), an, q, common, "thermotile " + opt.fdrMethod().key().toUpperCase(Locale.ROOT)
-                + " q-values of the Gi* p-values of " + field.statistic() + "; no data -9999");
+                + " q-values of the Gi* p-values of " + field.statistic() + "; no data -9999",
+                OutputDescriptions.qvalue(field.statistic(), opt.fdrMethod() == FalseDiscovery.BH
+                        ? "Benjamini-Hochberg" : "Benjamini-Yekutieli"));
         writeFloat(tmp.resolve(ZSCORE), an, z, common, "thermotile Gi* z-scores of " + field.statistic() + ", "
-                + num(band.distanceM()) + " m " + band.weights().key() + " band; no data -9999");
+                + num(band.distanceM()) + " m " + band.weights().key() + " band; no data -9999",
+                OutputDescriptions.zscore(field.statistic()));
         float[] cov = new float[n];
         for (int i = 0; i < n; i++) {
             cov[i] = (float) coverage[i];
         }
         writeFloat(tmp.resolve(COVERAGE), an, cov, common, "thermotile coverage of each analysis cell: share of its "
-                + "area holding valid simulation cells [0-1]; cells below MIN_COVERAGE are left out of the analysis");
+                + "area holding valid simulation cells [0-1]; cells below MIN_COVERAGE are left out of the analysis",
+                OutputDescriptions.coverage());
     }
 
-    private static void writeFloat(Path f, RasterGrid an, float[] v, Map<String, String> items, String description)
-            throws IOException {
+    private static void writeFloat(Path f, RasterGrid an, float[] v, Map<String, String> items, String description,
+            GeoTiffWriter.Band bandText) throws IOException {
         GeoTiffWriter.writeFloat(f, an, v, Z_NODATA);
         TiffMetadata.addAscii(f, Map.of(TiffMetadata.IMAGE_DESCRIPTION, description,
-                TiffMetadata.GDAL_METADATA, TiffMetadata.gdalMetadataXml(items)));
+                TiffMetadata.GDAL_METADATA, TiffMetadata.gdalMetadataXml(items, bandText)));
     }
 
     private static void writeSummary(Path file, Result r, Prepared p, GlobalMoments g, DistanceBand band,

@@ -45,6 +45,17 @@ final class TiffMetadata {
         return b.append("</GDALMetadata>").toString();
     }
 
+    /**
+     * As {@link #gdalMetadataXml(Map)}, with band 1's description and unit as GDAL reads them
+     * ({@code DESCRIPTION} and {@code UNITTYPE} items of sample 0, as {@code GeoTiffWriter} writes them).
+     */
+    static String gdalMetadataXml(Map<String, String> items, org.thermotile.jobs.io.raster.GeoTiffWriter.Band band) {
+        String xml = gdalMetadataXml(items);
+        String bandItems = "  <Item name=\"DESCRIPTION\" sample=\"0\" role=\"description\">" + escape(band.description())
+                + "</Item>\n  <Item name=\"UNITTYPE\" sample=\"0\" role=\"unittype\">" + escape(band.unit()) + "</Item>\n";
+        return xml.substring(0, xml.length() - "</GDALMetadata>".length()) + bandItems + "</GDALMetadata>";
+    }
+
     private static String escape(String s) {
         return s.replace("&", "&amp;").replace("<", "&lt;").replace(">", "&gt;").replace("\"", "&quot;");
     }

@@ -372,8 +372,14 @@ public final class Observe {
             List<Row> agreementRows = new ArrayList<>();
             List<Row> pairRows = new ArrayList<>();
             for (ImageResult r : results) {
-                GeoTiffWriter.writeFloat(tmp.resolve("difference_" + r.name() + ".tif"), grid, r.difference(),
-                        org.thermotile.jobs.city.CityJob.MAP_NODATA);
+                float[] diff = r.difference();
+                GeoTiffWriter.writeFloatBlocks(tmp.resolve("difference_" + r.name() + ".tif"), grid,
+                        java.util.List.of(org.thermotile.jobs.catalogue.OutputDescriptions.observedDifference(r.name())),
+                        org.thermotile.jobs.city.CityJob.MAP_NODATA, (band, c0, r0, w, h, block) -> {
+                            for (int row = 0; row < h; row++) {
+                                System.arraycopy(diff, (r0 + row) * grid.width() + c0, block, row * w, w);
+                            }
+                        }, org.thermotile.jobs.io.raster.CloudOptimized.Resampling.AVERAGE);
                 row(csv, r.name(), "all", "all", r.all());
                 agreementRows.add(agreementRow(r.name(), "all", "all", r.all()));
                 r.byMaterial().forEach((k, v) -> row(csv, r.name(), "material", k, v));

@@ -508,7 +508,7 @@ public final class RunReport {
     }
 
     private static SvgChart diurnalChart(String title, int width, int height, boolean legend) {
-        double[] ticks = width >= 600 ? new double[] {0, 3, 6, 9, 12, 15, 18, 21} : new double[] {0, 6, 12, 18};
+        double[] ticks = width > 600 ? new double[] {0, 3, 6, 9, 12, 15, 18, 21} : new double[] {0, 6, 12, 18};
         String[] labels = new String[ticks.length];
         for (int i = 0; i < ticks.length; i++) {
             labels[i] = String.format(Locale.ROOT, "%02d:00", (int) ticks[i]);
@@ -529,13 +529,10 @@ public final class RunReport {
             Table t = Table.readParquet(mh);
             List<Curves.Group> groups = Curves.of(t, "material", mh);
             groups.forEach(g -> colourOf(g.key()));
-            SvgChart diurnal = diurnalChart("Diurnal surface temperature per material", 860, 360, true);
-            for (Curves.Group g : groups) {
-                diurnal.add(new SvgChart.Series(g.key(), hours(), g.meanByHour(), colourOf(g.key()), dashOf(g.key()), 2));
-            }
             body.append("<h3>Diurnal cycle per material</h3>\n<p>For each material, the surface temperature at each "
-                    + "local clock hour, averaged over the material's cells and over the counted days.</p>\n")
-                    .append("<div class=\"chart\" id=\"chart-diurnal-materials\">").append(diurnal.toSvg()).append("</div>\n");
+                    + "local clock hour, averaged over the material's cells and over the counted days; one panel per "
+                    + "kind of surface, all panels on one temperature axis.</p>\n")
+                    .append(materialPanels(groups, this::colourOf, this::dashOf));
 
             TreeMap<LocalDate, Double> all = Curves.allCellsDailyPeak(t, mh);
             List<LocalDate> dates = Curves.dates(groups);
@@ -566,6 +563,30 @@ public final class RunReport {
         if (hasDistricts) {
             districtsSection(dh);
         }
+    }
+
+    /**
+     * The diurnal curves of the materials as small multiples: one panel per kind of surface
+     * ({@link MaterialKinds}), each material in exactly one panel, all panels on one temperature axis.
+     */
+    static String materialPanels(List<Curves.Group> groups, java.util.function.Function<String, String> colour,
+            java.util.function.Function<String, String> dash) {
+        StringBuilder b = new StringBuilder("<div class=\"multiples\" id=\"chart-diurnal-materials\">\n");
+        double[] range = MaterialKinds.range(groups);
+        for (Map.Entry<String, List<Curves.Group>> kind : MaterialKinds.byKind(groups).entrySet()) {
+            SvgChart c = diurnalChart(kind.getKey(), 600, 280, true).legendWidth(290)
+                    .legendChars(36);
+            if (range[1] > range[0]) {
+                c.yRange(range[0], range[1]);
+            }
+            for (Curves.Group g : kind.getValue()) {
+                c.add(new SvgChart.Series(g.key(), hours(), g.meanByHour(), colour.apply(g.key()), dash.apply(g.key()), 2));
+            }
+            b.append("<figure class=\"small-chart\" id=\"chart-diurnal-").append(MaterialKinds.id(kind.getKey()))
+                    .append("\"><figcaption>").append(Html.esc(kind.getKey())).append("</figcaption>")
+                    .append(c.toSvg()).append("</figure>\n");
+        }
+        return b.append("</div>\n").toString();
     }
 
     private static SvgChart dailyChart(String title, List<LocalDate> dates, int width, int height) {

@@ -63,6 +63,22 @@ final class SvgChart {
     }
 
     /** Fixes the y range (else it is taken from the data, widened to nice ticks). */
+    private int legendWidth = RIGHT_LEGEND;
+
+    /** The legend column's width [px] (default {@value #RIGHT_LEGEND}), for long labels in a small chart. */
+    SvgChart legendWidth(int px) {
+        legendWidth = px;
+        return this;
+    }
+
+    private int legendChars = LEGEND_CHARS;
+
+    /** Longest legend label shown whole in this chart (default {@value #LEGEND_CHARS}). */
+    SvgChart legendChars(int n) {
+        legendChars = n;
+        return this;
+    }
+
     SvgChart yRange(double min, double max) {
         yMin = min;
         yMax = max;
@@ -119,7 +135,7 @@ final class SvgChart {
         double[] yt = NiceScale.looseTicks(yr[0], yr[1], 6);
         double y0 = yt[0], y1 = yt[yt.length - 1];
         double yStep = yt.length > 1 ? yt[1] - yt[0] : 1;
-        int right = legend ? RIGHT_LEGEND : 14;
+        int right = legend ? legendWidth : 14;
         double pw = width - LEFT - right, ph = height - TOP - BOTTOM;
         double x0 = xMin, x1 = xMax;
         if (!(x1 > x0)) {
@@ -180,7 +196,7 @@ final class SvgChart {
                 b.append(String.format(Locale.ROOT, "<line x1=\"%.1f\" x2=\"%.1f\" y1=\"%.1f\" y2=\"%.1f\" stroke=\"%s\" "
                         + "stroke-width=\"%.1f\"%s/>", lx, lx + 24, ly, ly, s.colour(), s.width(), dash(s.dash())));
                 b.append(String.format(Locale.ROOT, "<text x=\"%.1f\" y=\"%.1f\">%s<title>%s</title></text>\n", lx + 30,
-                        ly + 4, Html.esc(shorten(s.label(), LEGEND_CHARS)), Html.esc(s.label())));
+                        ly + 4, Html.esc(shorten(s.label(), legendChars)), Html.esc(s.label())));
                 ly += 18;
             }
             for (Band band : bands) {

@@ -256,6 +256,52 @@ class PeriodSweepTest {
         assertEquals(0, mid.path("computed_cell_hours").asLong());
     }
 
+    /**
+     * A run over several periods has a catalogue entry per period (its own maps and its partitions
+     * of the run's tables, hrefs relative to the period's folder) and one for the whole run (every
+     * file, links to the periods' entries), with the periods' time ranges (STAC 1.0.0 Item spec).
+     */
+    @Test
+    void everyPeriodAndTheRunHaveACatalogueEntry() throws Exception {
+        ObjectMapper om = new ObjectMapper();
+        JsonNode run = om.readTree(out.resolve("item.json").toFile());
+        assertEquals("test-city", run.path("id").asText());
+        assertEquals(3, run.path("links").size());
+        java.time.Instant runStart = java.time.Instant.parse(run.path("properties").path("start_datetime").asText());
+        java.time.Instant runEnd = java.time.Instant.parse(run.path("properties").path("end_datetime").asText());
+        for (String p : List.of("mid-july", "mid-july-warm", "late-july")) {
+            Path folder = out.resolve("periods").resolve(p);
+            JsonNode item = om.readTree(folder.resolve("item.json").toFile());
+            assertEquals("test-city-" + p, item.path("id").asText());
+            assertEquals("../../item.json", item.path("links").path(0).path("href").asText());
+            assertTrue(Files.isRegularFile(folder.resolve(item.path("links").path(0).path("href").asText()).normalize()));
+            JsonNode props = item.path("properties");
+            java.time.Instant s = java.time.Instant.parse(props.path("start_datetime").asText());
+            java.time.Instant e = java.time.Instant.parse(props.path("end_datetime").asText());
+            assertEquals(java.time.Duration.ofHours(24), java.time.Duration.between(s, e), p);
+            assertTrue(!s.isBefore(runStart) && !e.isAfter(runEnd), p);
+            int tables = 0;
+            for (JsonNode a : item.path("assets")) {
+                String href = a.path("href").asText();
+                assertTrue(Files.isRegularFile(folder.resolve(href)), p + ": " + href);
+                if (href.startsWith("../../tables/")) {
+                    assertTrue(href.contains("/period=" + p + "/"), href);
+                    tables++;
+                }
+            }
+            assertTrue(tables >= 4, p + ": " + tables + " table parts");
+            assertTrue(item.path("assets").has("maps/peak.tif"), p);
+        }
+        assertEquals(java.time.Instant.parse(om.readTree(out.resolve("periods/mid-july/item.json").toFile())
+                .path("properties").path("start_datetime").asText()), runStart);
+        assertEquals(java.time.Instant.parse(om.readTree(out.resolve("periods/late-july/item.json").toFile())
+                .path("properties").path("end_datetime").asText()), runEnd);
+        for (JsonNode a : run.path("assets")) {
+            assertTrue(Files.isRegularFile(out.resolve(a.path("href").asText())), a.path("href").asText());
+        }
+        assertTrue(run.path("assets").has("periods/late-july/maps/peak.tif"));
+    }
+
     /** The resolved run file (as the manifest records it) is a valid run file with the same periods. */
     @Test
     void theResolvedRunFileReadsBackWithTheSamePeriods() throws Exception {

@@ -69,6 +69,7 @@ public final class GeoTiffReader implements AutoCloseable {
     private final int bandCount;
     private final SampleType sampleType;
     private final OptionalDouble noData;
+    private final String gdalMetadata;
     private final List<String> warnings = new ArrayList<>();
 
     private final boolean requireProjected;
@@ -91,6 +92,7 @@ public final class GeoTiffReader implements AutoCloseable {
                     + dir.fileSize + " bytes (cut short?)");
         }
         noData = parseNoData(file, dir.ascii(TiffDirectory.GDAL_NODATA));
+        gdalMetadata = dir.ascii(TiffDirectory.GDAL_METADATA);
         int declaredEpsg = dir.declaredEpsg();
 
         try {
@@ -204,6 +206,14 @@ public final class GeoTiffReader implements AutoCloseable {
     /** The declared no-data value (GDAL tag 42113), or empty when the file declares none. */
     public OptionalDouble noDataValue() {
         return noData;
+    }
+
+    /**
+     * GDAL's metadata XML (tag 42112: band descriptions, units, times, class tables) as stored, or
+     * null when the file has none.
+     */
+    public String gdalMetadata() {
+        return gdalMetadata;
     }
 
     /** Integer codes of band 1 in a window; see {@link #readIntWindow(int, int, int, int, int)}. */
