@@ -55,7 +55,9 @@ class BalanceKernelTest {
     /** Runs the semi-infinite check at {@code minutes} per sub-step down to {@code maxDepthM}; returns nodes checked. */
     static int checkSinusoid(int minutes, double maxDepthM, double firstSegmentM, double growth) {
         double k = 1.0, rhoC = 2.0e6, meanK = 300, ampK = 10;
-        Material soil = layered(1.0, 0.0, 0.0, BottomBoundary.deepGround(),
+        // "No radiation": emissivity 1e-9 (the schema refuses 0, which no real surface has); its emission,
+        // below 1e-6 W/m² at 300 K, is negligible beside the convective forcing.
+        Material soil = layered(1.0, 1e-9, 0.0, BottomBoundary.deepGround(),
                 new Layer("uniform solid", 3.0, k, rhoC));
         int days = 12;
         double omega = 2 * Math.PI / 86400.0;
