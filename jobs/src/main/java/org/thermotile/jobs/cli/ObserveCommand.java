@@ -29,7 +29,7 @@ final class ObserveCommand implements Callable<Integer> {
     @Option(names = "--calibrate", paramLabel = "KEYS",
             description = "also fit these material parameters to the images (comma-separated: albedo, emissivity, "
                     + "moisture_availability, anthropogenic_heat) for every material that dominates an observed "
-                    + "pixel; writes observed/calibrated_materials.yaml, observed/calibration.csv and "
+                    + "pixel, or as MATERIAL.KEY for one material (asphalt_aged.albedo); writes observed/calibrated_materials.yaml, observed/calibration.csv and "
                     + "observed/calibration.parquet")
     String calibrate;
 

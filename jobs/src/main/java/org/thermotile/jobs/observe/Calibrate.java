@@ -54,23 +54,77 @@ public final class Calibrate {
     }
 
     /**
-     * Parses {@code albedo,moisture_availability} into keys.
+     * Parses {@code albedo,moisture_availability} into keys. A key may name one material as
+     * {@code MATERIAL.KEY} ({@code asphalt_aged.albedo}): that parameter then moves for that
+     * material only; a bare key moves for every material that dominates an observed pixel.
      *
      * @throws UserInputException naming the bad key and the valid ones
      */
     public static List<String> keys(String list) {
         List<String> out = new ArrayList<>();
         for (String k : list.split(",")) {
-            String key = k.trim().toLowerCase(Locale.ROOT);
-            if (!Calibration.KEYS.contains(key)) {
+            String given = k.trim().toLowerCase(Locale.ROOT);
+            int dot = given.lastIndexOf('.');
+            String key = dot < 0 ? given : given.substring(dot + 1);
+            if (!Calibration.KEYS.contains(key) || dot == 0) {
                 throw new UserInputException("--calibrate: '" + k.trim() + "' is not a parameter that can be "
-                        + "calibrated; fix: use a comma-separated list of " + String.join(", ", Calibration.KEYS));
+                        + "calibrated; fix: use a comma-separated list of " + String.join(", ", Calibration.KEYS)
+                        + ", each alone (every observed material) or as MATERIAL.KEY (one material, e.g. "
+                        + "asphalt_aged.albedo)");
             }
-            if (!out.contains(key)) {
-                out.add(key);
+            if (!out.contains(given)) {
+                out.add(given);
             }
         }
         return out;
+    }
+
+    /** The parameters {@code keys} free: bare keys for every used material, MATERIAL.KEY for that one. */
+    static List<Calibration.Parameter> freeParameters(Material[] palette, boolean[] used, List<String> keys) {
+        for (String k : keys) {
+            int dot = k.lastIndexOf('.');
+            if (dot < 0) {
+                continue;
+            }
+            String id = k.substring(0, dot);
+            int m = indexOf(palette, id);
+            if (m < 0 || !used[m]) {
+                List<String> observed = new ArrayList<>();
+                for (int i = 0; i < palette.length; i++) {
+                    if (used[i]) {
+                        observed.add(palette[i].id());
+                    }
+                }
+                throw new UserInputException("--calibrate: material '" + id + "' " + (m < 0 ? "is not in the run"
+                        : "dominates no observed pixel") + "; fix: use one of the materials the images see: "
+                        + String.join(", ", observed));
+            }
+        }
+        List<Calibration.Parameter> free = new ArrayList<>();
+        for (int m = 0; m < palette.length; m++) {
+            if (!used[m]) {
+                continue;
+            }
+            for (String k : keys) {
+                int dot = k.lastIndexOf('.');
+                String key = dot < 0 ? k : k.substring(dot + 1);
+                boolean mine = dot < 0 || k.substring(0, dot).equals(palette[m].id());
+                Calibration.Parameter p = mine ? Calibration.Parameter.of(m, key) : null;
+                if (p != null && !free.contains(p)) {
+                    free.add(p);
+                }
+            }
+        }
+        return free;
+    }
+
+    private static int indexOf(Material[] palette, String id) {
+        for (int i = 0; i < palette.length; i++) {
+            if (palette[i].id().equals(id)) {
+                return i;
+            }
+        }
+        return -1;
     }
 
     /** What the sample and its simulation are, before any evaluation. */
@@ -120,14 +174,7 @@ public final class Calibrate {
             }
             off += o.length;
         }
-        List<Calibration.Parameter> free = new ArrayList<>();
-        for (int m = 0; m < palette.length; m++) {
-            if (used[m]) {
-                for (String k : keys) {
-                    free.add(Calibration.Parameter.of(m, k));
-                }
-            }
-        }
+        List<Calibration.Parameter> free = freeParameters(palette, used, keys);
         if (free.isEmpty()) {
             throw new UserInputException(runDir + ": no observed pixel has a simulated material; fix: give images "
                     + "that cover the run's area");
