@@ -3,9 +3,6 @@ package org.thermotile.jobs.observe;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
-import org.apache.sis.referencing.CRS;
-import org.opengis.referencing.crs.CoordinateReferenceSystem;
-import org.opengis.referencing.operation.MathTransform;
 import org.thermotile.jobs.city.TileJobSpec;
 import org.thermotile.jobs.city.TileSpec;
 import org.thermotile.jobs.city.TileTask;
@@ -32,29 +29,9 @@ final class CalibrationSample {
         try (GeoTiffReader r = GeoTiffReader.openSingleBand(image)) {
             ig = r.grid();
         }
-        MathTransform tr;
-        try {
-            tr = CRS.findOperation(crsOf(ig), crsOf(grid), null).getMathTransform();
-        } catch (Exception e) {
-            throw new UserInputException(image + ": its CRS cannot be transformed to the run's (" + e.getMessage()
-                    + "); fix: give the image a CRS with an EPSG code or a full WKT");
-        }
         int w = ig.width();
         int h = ig.height();
-        double[] corners = new double[(w + 1) * (h + 1) * 2];
-        for (int r = 0; r <= h; r++) {
-            for (int c = 0; c <= w; c++) {
-                int k = 2 * (r * (w + 1) + c);
-                corners[k] = ig.originX() + c * ig.pixelWidth();
-                corners[k + 1] = ig.originY() + r * ig.pixelHeight();
-            }
-        }
-        try {
-            tr.transform(corners, 0, corners, 0, corners.length / 2);
-        } catch (Exception e) {
-            throw new UserInputException(image + ": its pixel corners cannot be transformed to the run CRS ("
-                    + e.getMessage() + "); fix: check the image's CRS");
-        }
+        double[] corners = Observe.pixelCorners(image, ig, grid);
         PixelFootprints cells = new PixelFootprints(grid.originX(), grid.originY(), grid.pixelWidth(), grid.width(),
                 grid.height());
         List<PixelFootprints.Footprint> out = new ArrayList<>(w * h);
@@ -116,16 +93,5 @@ final class CalibrationSample {
             }
         }
         return new PixelCells(idx, areas, in.geometry());
-    }
-
-    private static CoordinateReferenceSystem crsOf(RasterGrid g) throws Exception {
-        if (g.epsg() > 0) {
-            try {
-                return CRS.forCode("EPSG:" + g.epsg());
-            } catch (Exception e) {
-                // fall back to the WKT
-            }
-        }
-        return CRS.fromWKT(g.crsWkt());
     }
 }

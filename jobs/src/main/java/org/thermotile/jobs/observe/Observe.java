@@ -181,31 +181,9 @@ public final class Observe {
                 }
             }
         }
-        MathTransform tr;
-        try {
-            CoordinateReferenceSystem src = crsOf(ig);
-            CoordinateReferenceSystem dst = crsOf(grid);
-            tr = CRS.findOperation(src, dst, null).getMathTransform();
-        } catch (Exception e) {
-            throw new UserInputException(img.file() + ": its CRS cannot be transformed to the run's ("
-                    + e.getMessage() + "); fix: give the image a CRS with an EPSG code or a full WKT");
-        }
         int w = ig.width();
         int h = ig.height();
-        double[] corners = new double[(w + 1) * (h + 1) * 2];
-        for (int r = 0; r <= h; r++) {
-            for (int c = 0; c <= w; c++) {
-                int k = 2 * (r * (w + 1) + c);
-                corners[k] = ig.originX() + c * ig.pixelWidth();
-                corners[k + 1] = ig.originY() + r * ig.pixelHeight();
-            }
-        }
-        try {
-            tr.transform(corners, 0, corners, 0, corners.length / 2);
-        } catch (Exception e) {
-            throw new UserInputException(img.file() + ": its pixel corners cannot be transformed to the run CRS ("
-                    + e.getMessage() + "); fix: check the image's CRS");
-        }
+        double[] corners = pixelCorners(img.file(), ig, grid);
         List<PixelFootprints.Footprint> fps = new ArrayList<>(w * h);
         double[] obs = new double[w * h];
         int[] pixelOfCell = new int[cells.cols() * cells.rows()];
@@ -436,6 +414,39 @@ public final class Observe {
 
     private static String fmt(double v) {
         return Double.isNaN(v) ? "" : String.format(Locale.ROOT, "%.4f", v);
+    }
+
+    /**
+     * The image's pixel corners in the run's CRS: (w + 1) × (h + 1) points, row by row, x and y
+     * interleaved, transformed with Apache SIS.
+     *
+     * @throws UserInputException when the image's CRS cannot be transformed to the run's
+     */
+    static double[] pixelCorners(Object file, RasterGrid ig, RasterGrid grid) {
+        MathTransform tr;
+        try {
+            tr = CRS.findOperation(crsOf(ig), crsOf(grid), null).getMathTransform();
+        } catch (Exception e) {
+            throw new UserInputException(file + ": its CRS cannot be transformed to the run's ("
+                    + e.getMessage() + "); fix: give the image a CRS with an EPSG code or a full WKT");
+        }
+        int w = ig.width();
+        int h = ig.height();
+        double[] corners = new double[(w + 1) * (h + 1) * 2];
+        for (int r = 0; r <= h; r++) {
+            for (int c = 0; c <= w; c++) {
+                int k = 2 * (r * (w + 1) + c);
+                corners[k] = ig.originX() + c * ig.pixelWidth();
+                corners[k + 1] = ig.originY() + r * ig.pixelHeight();
+            }
+        }
+        try {
+            tr.transform(corners, 0, corners, 0, corners.length / 2);
+        } catch (Exception e) {
+            throw new UserInputException(file + ": its pixel corners cannot be transformed to the run CRS ("
+                    + e.getMessage() + "); fix: check the image's CRS");
+        }
+        return corners;
     }
 
     private static CoordinateReferenceSystem crsOf(RasterGrid g) throws Exception {
