@@ -81,6 +81,7 @@ class ClusterRunTest {
             s.stop();
         }
         org.thermotile.jobs.report.RunReport.write(embedded); // the run command writes it too
+        org.thermotile.jobs.catalogue.StacItem.writeAll(embedded); // and then its catalogue entry, listing the report
         System.out.printf("embedded run (local[2]): %.1f s%n", (System.nanoTime() - t0) / 1e9);
         t0 = System.nanoTime();
         cluster = StandaloneCluster.start(dir.resolve("cluster"), 2, 1, "2g");
