@@ -2,10 +2,12 @@ package org.thermotile.jobs.catalogue;
 
 import java.util.List;
 import java.util.Locale;
+import org.thermotile.jobs.config.RunFile;
 import org.thermotile.jobs.io.raster.GeoTiffWriter;
 
 /**
- * What each output of a run is, in one place: every map's band description and unit (written into
+ * What each output of a run is, in one place: every map's band description and unit (a chosen
+ * map's from its {@link RunFile.MapKind}; written into
  * the GeoTIFF's GDAL metadata: gdalinfo's "Description" and "Unit Type") and every file's title,
  * description and STAC roles (the catalogue entry, {@link StacItem}).
  *
@@ -22,13 +24,12 @@ public final class OutputDescriptions {
 
     /** The band of a statistic map ({@code maps/KEY.tif}). */
     public static GeoTiffWriter.Band statistic(String key) {
+        RunFile.MapKind kind = RunFile.MapKind.fromKey(key);
+        if (kind != null) {
+            return new GeoTiffWriter.Band(kind.bandDescription(), kind.bandUnit());
+        }
         return switch (key) {
-            case "peak" -> new GeoTiffWriter.Band("peak surface temperature of the period", "degC");
-            case "mean" -> new GeoTiffWriter.Band("mean surface temperature of the period", "degC");
-            case "night_min" -> new GeoTiffWriter.Band("lowest night-time surface temperature", "degC");
-            case "peak_hour" -> new GeoTiffWriter.Band("local clock hour of the peak surface temperature", "h");
-            case "degree_hours" -> new GeoTiffWriter.Band("degree-hours of surface temperature above the threshold", "K.h");
-            case "hours_above" -> new GeoTiffWriter.Band("hours with surface temperature above the threshold", "h");
+            // The urban-geometry maps, written when the run has a geometry: block (not chosen in outputs.maps).
             case "sky_view_factor" -> new GeoTiffWriter.Band("sky view factor", "1");
             case "shaded_hours" -> new GeoTiffWriter.Band("sun hours lost to cast shadows", "h");
             default -> throw new IllegalArgumentException("no band description for " + key);

@@ -48,7 +48,8 @@ public final class Comparison {
     private Comparison() {}
 
     static final String ALL = "(all)";
-    static final List<String> DELTA_MAPS = List.of("peak", "mean", "degree_hours");
+    static final List<String> DELTA_MAPS = org.thermotile.jobs.config.RunFile.MapKind.keys(
+            org.thermotile.jobs.config.RunFile.MapKind::delta);
 
     static final StructType DISTRICTS = new StructType()
             .add("scenario", DataTypes.StringType, false)

@@ -58,13 +58,11 @@ final class MapOutputs {
 
     /** The tile array of a statistic. */
     static double[] field(String key, TileSimulation.Result r) {
+        RunFile.MapKind kind = RunFile.MapKind.fromKey(key);
+        if (kind != null) {
+            return kind.values(r);
+        }
         return switch (key) {
-            case "peak" -> r.peakC;
-            case "mean" -> r.meanC;
-            case "night_min" -> r.nightMinC;
-            case "peak_hour" -> r.peakHour;
-            case "degree_hours" -> r.degreeHoursAbove;
-            case "hours_above" -> r.hoursAbove;
             case "sky_view_factor" -> r.skyViewFactor;
             case "shaded_hours" -> r.shadedHours;
             default -> throw new IllegalArgumentException("no map for " + key);
@@ -81,7 +79,7 @@ final class MapOutputs {
             Layer layer = new Layer(kind.key(), null);
             // Overviews average temperatures and counts; the clock hour of the peak takes the nearest cell.
             GeoTiffWriter.writeFloatBlocks(mapsDir.resolve(name), grid, List.of(band(kind.key())), CityJob.MAP_NODATA,
-                    new Strips(grid, tileSize, layer, tiles), kind.key().equals("peak_hour")
+                    new Strips(grid, tileSize, layer, tiles), kind.nearestOverviews()
                             ? CloudOptimized.Resampling.NEAREST : CloudOptimized.Resampling.AVERAGE);
             written.add("maps/" + name);
         }

@@ -15,6 +15,7 @@ import org.apache.spark.sql.SaveMode;
 import org.apache.spark.sql.SparkSession;
 import org.apache.spark.sql.types.DataTypes;
 import org.apache.spark.sql.types.StructType;
+import org.thermotile.jobs.config.RunFile.MapKind;
 import org.thermotile.jobs.io.raster.RasterGrid;
 import org.thermotile.jobs.storage.OutputStore;
 import org.thermotile.jobs.storage.CanonicalParquet;
@@ -37,12 +38,12 @@ public final class TableOutputs {
             .add("land_cover", DataTypes.IntegerType, false)
             .add("material", DataTypes.StringType, false)
             .add("district", DataTypes.StringType, true)
-            .add("peak_c", DataTypes.DoubleType, false)
-            .add("mean_c", DataTypes.DoubleType, false)
-            .add("night_min_c", DataTypes.DoubleType, true)
-            .add("peak_hour", DataTypes.IntegerType, false)
-            .add("hours_above", DataTypes.IntegerType, false)
-            .add("degree_hours", DataTypes.DoubleType, false)
+            .add(MapKind.PEAK.column(), DataTypes.DoubleType, false)
+            .add(MapKind.MEAN.column(), DataTypes.DoubleType, false)
+            .add(MapKind.NIGHT_MIN.column(), DataTypes.DoubleType, true)
+            .add(MapKind.PEAK_HOUR.column(), DataTypes.IntegerType, false)
+            .add(MapKind.HOURS_ABOVE.column(), DataTypes.IntegerType, false)
+            .add(MapKind.DEGREE_HOURS.column(), DataTypes.DoubleType, false)
             .add("sky_view_factor", DataTypes.DoubleType, true);
 
     static final StructType CELL_HOURS = new StructType()

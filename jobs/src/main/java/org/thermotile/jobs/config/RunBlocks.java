@@ -132,7 +132,7 @@ public final class RunBlocks {
         s.checkKeys(HOTSPOTS, List.of(), java.util.Map.of());
         List<String> maps = new ArrayList<>();
         if (outputs != null) {
-            outputs.maps().stream().map(RunFile.MapKind::key).filter(k -> !k.equals("peak_hour")).forEach(maps::add);
+            outputs.maps().stream().filter(RunFile.MapKind::hotspots).map(RunFile.MapKind::key).forEach(maps::add);
         }
         JsonNode stats = s.list("statistics", false, "a list of the run's maps, e.g. [peak]");
         if (stats != null) {

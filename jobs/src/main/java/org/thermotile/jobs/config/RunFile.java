@@ -435,25 +435,75 @@ public record RunFile(String source, String name, Site site, Inputs inputs, Weat
         }
     }
 
-    /** Map products a run can write; {@link #key()} is the name used in run files. */
+    /**
+     * The map products a run can write, each with everything said about it in one place: its
+     * run-file key (also its file name, {@code maps/KEY.tif}), the report's title, unit and
+     * explanation, the GeoTIFF band's description and unit, the per-cell statistic it is cut from,
+     * its column in the {@code cells} table, and what else may use it (hot spots, the report,
+     * scenario difference maps). To add a map, add a constant here (see DEVELOPERS.md).
+     */
     public enum MapKind {
         /** Highest surface temperature of the period. */
-        PEAK("peak"),
+        PEAK("peak", "Peak surface temperature", "°C",
+                "The highest surface temperature each cell reached in the counted hours.",
+                "peak surface temperature of the period", "degC", r -> r.peakC, "peak_c",
+                Use.HOTSPOTS, Use.REPORT, Use.DELTA),
         /** Mean surface temperature of the period. */
-        MEAN("mean"),
+        MEAN("mean", "Mean surface temperature", "°C",
+                "Each cell's surface temperature averaged over the counted hours.",
+                "mean surface temperature of the period", "degC", r -> r.meanC, "mean_c",
+                Use.HOTSPOTS, Use.REPORT, Use.DELTA),
         /** Lowest night-time surface temperature. */
-        NIGHT_MIN("night_min"),
-        /** Local hour of day at which the peak occurs. */
-        PEAK_HOUR("peak_hour"),
+        NIGHT_MIN("night_min", "Night minimum surface temperature", "°C",
+                "The lowest surface temperature each cell reached with the sun below the horizon.",
+                "lowest night-time surface temperature", "degC", r -> r.nightMinC, "night_min_c",
+                Use.HOTSPOTS, Use.REPORT),
+        /**
+         * Local hour of day at which the peak occurs. A clock hour, not a quantity: hot spots
+         * cannot sum it, the report does not draw it, and its overviews take the nearest cell.
+         */
+        PEAK_HOUR("peak_hour", "Hour of the peak surface temperature", "h",
+                "The local clock hour at which each cell's surface was hottest.",
+                "local clock hour of the peak surface temperature", "h", r -> r.peakHour, "peak_hour",
+                Use.NEAREST_OVERVIEWS),
         /** Sum over hours of the excess of surface temperature above the threshold [K h]. */
-        DEGREE_HOURS("degree_hours"),
+        DEGREE_HOURS("degree_hours", "Degree-hours above %s", "K·h",
+                "The sum over the counted hours of how far each cell's surface was above the "
+                        + "threshold: a measure of how long and how much it was hot.",
+                "degree-hours of surface temperature above the threshold", "K.h", r -> r.degreeHoursAbove,
+                "degree_hours", Use.HOTSPOTS, Use.REPORT, Use.DELTA, Use.THRESHOLD),
         /** Number of hours with surface temperature above the threshold [h]. */
-        HOURS_ABOVE("hours_above");
+        HOURS_ABOVE("hours_above", "Hours above %s", "h",
+                "How many counted hours each cell's surface was above the threshold.",
+                "hours with surface temperature above the threshold", "h", r -> r.hoursAbove, "hours_above",
+                Use.HOTSPOTS, Use.REPORT, Use.THRESHOLD);
+
+        /** What, besides being written, a map is used for or needs. */
+        private enum Use { HOTSPOTS, REPORT, DELTA, THRESHOLD, NEAREST_OVERVIEWS }
 
         private final String key;
+        private final String title;
+        private final String unit;
+        private final String explanation;
+        private final String bandDescription;
+        private final String bandUnit;
+        private final java.util.function.Function<org.thermotile.model.tile.TileSimulation.Result, double[]> values;
+        private final String column;
+        private final java.util.Set<Use> uses;
 
-        MapKind(String key) {
+        MapKind(String key, String title, String unit, String explanation, String bandDescription, String bandUnit,
+                java.util.function.Function<org.thermotile.model.tile.TileSimulation.Result, double[]> values,
+                String column, Use... uses) {
             this.key = key;
+            this.title = title;
+            this.unit = unit;
+            this.explanation = explanation;
+            this.bandDescription = bandDescription;
+            this.bandUnit = bandUnit;
+            this.values = values;
+            this.column = column;
+            this.uses = uses.length == 0 ? java.util.EnumSet.noneOf(Use.class)
+                    : java.util.EnumSet.copyOf(java.util.Arrays.asList(uses));
         }
 
         /** The name of this map in run files and output file names ("night_min"). */
@@ -461,9 +511,69 @@ public record RunFile(String source, String name, Site site, Inputs inputs, Weat
             return key;
         }
 
+        /** The report's title; {@code threshold} ("30 °C", "the threshold") fills a threshold map's. */
+        public String title(String threshold) {
+            return needsThreshold() ? String.format(java.util.Locale.ROOT, title, threshold) : title;
+        }
+
+        /** The unit as readers see it in the report ("°C", "K·h", "h"). */
+        public String unit() {
+            return unit;
+        }
+
+        /** The unit as the hot-spot summaries write it: the report's, with a space for the product dot ("K h"). */
+        public String plainUnit() {
+            return unit.replace('·', ' ');
+        }
+
+        /** The report's one-sentence explanation of the map. */
+        public String explanation() {
+            return explanation;
+        }
+
+        /** The GeoTIFF band's description (gdalinfo's "Description"). */
+        public String bandDescription() {
+            return bandDescription;
+        }
+
+        /** The GeoTIFF band's unit, UDUNITS-2 style ASCII ("degC", "K.h", "h"; gdalinfo's "Unit Type"). */
+        public String bandUnit() {
+            return bandUnit;
+        }
+
+        /** The per-cell statistic of a tile this map is made of, row-major over the tile. */
+        public double[] values(org.thermotile.model.tile.TileSimulation.Result r) {
+            return values.apply(r);
+        }
+
+        /** Its column in the {@code cells} table. */
+        public String column() {
+            return column;
+        }
+
+        /** True when the Getis-Ord Gi* hot-spot analysis may use this map (a quantity, not a clock hour). */
+        public boolean hotspots() {
+            return uses.contains(Use.HOTSPOTS);
+        }
+
+        /** True when the report draws this map. */
+        public boolean inReport() {
+            return uses.contains(Use.REPORT);
+        }
+
+        /** True when a comparison writes this map's scenario-minus-baseline difference ({@code delta_KEY.tif}). */
+        public boolean delta() {
+            return uses.contains(Use.DELTA);
+        }
+
+        /** True when this map's overviews take the nearest cell instead of averaging (a clock hour). */
+        public boolean nearestOverviews() {
+            return uses.contains(Use.NEAREST_OVERVIEWS);
+        }
+
         /** True when this map needs {@code outputs.threshold_c}. */
         public boolean needsThreshold() {
-            return this == DEGREE_HOURS || this == HOURS_ABOVE;
+            return uses.contains(Use.THRESHOLD);
         }
 
         /** The kind named {@code key} in a run file, or null. */
@@ -479,6 +589,11 @@ public record RunFile(String source, String name, Site site, Inputs inputs, Weat
         /** All run-file names, in declaration order. */
         public static List<String> keys() {
             return java.util.Arrays.stream(values()).map(MapKind::key).toList();
+        }
+
+        /** The keys of the maps {@code which} holds for, in declaration order. */
+        public static List<String> keys(java.util.function.Predicate<MapKind> which) {
+            return java.util.Arrays.stream(values()).filter(which).map(MapKind::key).toList();
         }
     }
 

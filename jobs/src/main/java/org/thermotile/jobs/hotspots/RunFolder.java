@@ -9,10 +9,10 @@ import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
-import java.util.Map;
 import java.util.Optional;
 import java.util.stream.Stream;
 import org.thermotile.jobs.errors.UserInputException;
+import org.thermotile.jobs.config.RunFile;
 import org.thermotile.jobs.config.Suggest;
 import org.thermotile.jobs.io.raster.GeoTiffReader;
 import org.thermotile.jobs.io.raster.RasterGrid;
@@ -28,14 +28,15 @@ public final class RunFolder {
     public static final String BASELINE = "baseline";
 
     /** Maps Gi* can be computed on, in the order listed to users. peak_hour is a clock hour. */
-    public static final List<String> STATISTICS = List.of("peak", "mean", "night_min", "degree_hours", "hours_above");
+    public static final List<String> STATISTICS = RunFile.MapKind.keys(RunFile.MapKind::hotspots);
 
     /** Prefix of a scenario's difference statistics (scenario minus baseline). */
     public static final String DELTA = "delta_";
 
-    /** Units of each statistic as users read them. */
-    static final Map<String, String> UNITS = Map.of("peak", "°C", "mean", "°C", "night_min", "°C",
-            "degree_hours", "K h", "hours_above", "h");
+    /** The unit of a statistic as users read it ("°C", "K h"). */
+    static String unit(String statistic) {
+        return RunFile.MapKind.fromKey(statistic).plainUnit();
+    }
 
     private static final String FIX_RERUN = "run it again, e.g. thermotile run RUNFILE --out %s --replace";
 
@@ -187,9 +188,11 @@ public final class RunFolder {
         String stat = opt.statistic();
         List<String> valid = statistics(scenario);
         if (!valid.contains(stat)) {
-            String why = stat.equals("peak_hour") ? "peak_hour is a clock hour, not a quantity Gi* can sum"
+            RunFile.MapKind kind = RunFile.MapKind.fromKey(stat);
+            boolean notSummable = kind != null && !kind.hotspots();
+            String why = notSummable ? stat + " is a clock hour, not a quantity Gi* can sum"
                     : "unknown statistic '" + stat + "'";
-            String hint = Suggest.closest(stat, valid).filter(c -> !stat.equals("peak_hour"))
+            String hint = Suggest.closest(stat, valid).filter(c -> !notSummable)
                     .map(c -> "; did you mean '" + c + "'?").orElse("");
             throw new UserInputException(mapsDir(scenario) + ": " + why + ". Fix: give --statistic "
                     + (valid.isEmpty() ? "of a map the run wrote (this run has none Gi* can use)"
@@ -201,7 +204,7 @@ public final class RunFolder {
         Path maps = mapsDir(scenario);
         if (stat.startsWith(DELTA)) {
             String base = stat.substring(DELTA.length());
-            unit = UNITS.get(base).equals("°C") ? "K" : UNITS.get(base);
+            unit = unit(base).equals("°C") ? "K" : unit(base);
             Path file = maps.resolve(stat + ".tif");
             if (Files.isRegularFile(file)) {
                 src = new FieldSource(file.toString(), null);
@@ -212,7 +215,7 @@ public final class RunFolder {
                 description = "scenario " + scenario + " maps/" + base + ".tif minus the run's maps/" + base + ".tif";
             }
         } else {
-            unit = UNITS.get(stat);
+            unit = unit(stat);
             src = new FieldSource(maps.resolve(stat + ".tif").toString(), null);
             description = scenario == null ? "maps/" + stat + ".tif" : "maps/" + stat + ".tif of scenario " + scenario;
         }

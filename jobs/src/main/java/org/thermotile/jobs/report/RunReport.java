@@ -19,6 +19,7 @@ import java.util.Map;
 import java.util.Optional;
 import java.util.TreeMap;
 import java.util.stream.Stream;
+import org.thermotile.jobs.config.RunFile;
 import org.thermotile.jobs.storage.RunLayout;
 import org.thermotile.jobs.io.raster.GeoTiffReader;
 import org.thermotile.jobs.io.raster.RasterGrid;
@@ -52,7 +53,7 @@ public final class RunReport {
     public static final String FILE = "report.html";
 
     /** The statistic maps drawn, in page order. */
-    static final List<String> MAP_KEYS = List.of("peak", "mean", "night_min", "degree_hours", "hours_above");
+    static final List<String> MAP_KEYS = RunFile.MapKind.keys(RunFile.MapKind::inReport);
 
     /**
      * Line colours for categories: the Okabe & Ito (2008) colour-blind-safe palette (hex values
@@ -394,34 +395,19 @@ public final class RunReport {
     private String mapTitle(String key) {
         String th = manifest.path("run_file").path("outputs").has("threshold_c")
                 ? num(manifest.path("run_file").path("outputs").path("threshold_c").asDouble(), 0) + " °C" : "the threshold";
-        return switch (key) {
-            case "peak" -> "Peak surface temperature";
-            case "mean" -> "Mean surface temperature";
-            case "night_min" -> "Night minimum surface temperature";
-            case "degree_hours" -> "Degree-hours above " + th;
-            case "hours_above" -> "Hours above " + th;
-            default -> key.replace('_', ' ');
-        };
+        RunFile.MapKind kind = RunFile.MapKind.fromKey(key);
+        return kind != null ? kind.title(th) : key.replace('_', ' ');
     }
 
+    /** A map's unit; a file named otherwise (a hot-spot folder of a difference map) in °C. */
     private static String mapUnit(String key) {
-        return switch (key) {
-            case "degree_hours" -> "K·h";
-            case "hours_above" -> "h";
-            default -> "°C";
-        };
+        RunFile.MapKind kind = RunFile.MapKind.fromKey(key);
+        return kind != null ? kind.unit() : "°C";
     }
 
     private static String mapExplanation(String key) {
-        return switch (key) {
-            case "peak" -> "The highest surface temperature each cell reached in the counted hours.";
-            case "mean" -> "Each cell's surface temperature averaged over the counted hours.";
-            case "night_min" -> "The lowest surface temperature each cell reached with the sun below the horizon.";
-            case "degree_hours" -> "The sum over the counted hours of how far each cell's surface was above the "
-                    + "threshold: a measure of how long and how much it was hot.";
-            case "hours_above" -> "How many counted hours each cell's surface was above the threshold.";
-            default -> "";
-        };
+        RunFile.MapKind kind = RunFile.MapKind.fromKey(key);
+        return kind != null ? kind.explanation() : "";
     }
 
     private void mapsSection() {

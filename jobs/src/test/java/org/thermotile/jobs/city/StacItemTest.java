@@ -24,6 +24,7 @@ import org.junit.jupiter.api.BeforeAll;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.thermotile.jobs.catalogue.StacItem;
+import org.thermotile.jobs.config.RunFile;
 import org.thermotile.jobs.config.RunFileReader;
 import org.thermotile.jobs.testing.Gdal;
 
@@ -50,7 +51,8 @@ class StacItemTest {
     @BeforeAll
     static void runCity() throws Exception {
         Path rf = CityFixture.write(dir.resolve("in"), 64, "  hourly_days: [2026-07-15]");
-        Files.writeString(rf, Files.readString(rf) + """
+        // Every map the run file can ask for, so each map descriptor's band is written and checked.
+        Files.writeString(rf, Files.readString(rf).replace("degree_hours]", "degree_hours, hours_above]") + """
                 scenarios:
                   - name: cool-dark-roofs
                     changes:
@@ -220,6 +222,31 @@ class StacItemTest {
         JsonNode z = Gdal.info(out.resolve("hotspots/peak/zscore.tif")).path("bands").get(0);
         assertEquals("1", z.path("unit").asText());
         assertTrue(z.path("description").asText().contains("Gi* z-score"), z.toString());
+    }
+
+    /**
+     * Every map descriptor's band description and unit are what gdalinfo reads from its file, and a
+     * scenario has a difference map exactly for the descriptors that ask for one ("change in …", a
+     * difference of °C in kelvin).
+     */
+    @Test
+    void everyMapDescriptorIsWhatItsFileSays() throws Exception {
+        Gdal.require("gdalinfo");
+        for (RunFile.MapKind kind : RunFile.MapKind.values()) {
+            Path tif = out.resolve("maps/" + kind.key() + ".tif");
+            JsonNode band = Gdal.info(tif).path("bands").get(0);
+            assertEquals(kind.bandDescription(), band.path("description").asText(), tif.toString());
+            assertEquals(kind.bandUnit(), band.path("unit").asText(), tif.toString());
+            Path delta = out.resolve("scenarios/cool-dark-roofs/maps/delta_" + kind.key() + ".tif");
+            assertEquals(kind.delta(), Files.isRegularFile(delta), delta.toString());
+            if (kind.delta()) {
+                JsonNode d = Gdal.info(delta).path("bands").get(0);
+                assertEquals("change in " + kind.bandDescription() + ", scenario minus baseline",
+                        d.path("description").asText(), delta.toString());
+                assertEquals(kind.bandUnit().equals("degC") ? "K" : kind.bandUnit(), d.path("unit").asText(),
+                        delta.toString());
+            }
+        }
     }
 
     /** Written again over the same folder, the item keeps its bytes (no clock time, fixed order). */
