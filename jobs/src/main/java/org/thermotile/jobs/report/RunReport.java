@@ -1,5 +1,6 @@
 package org.thermotile.jobs.report;
 
+import org.thermotile.jobs.config.RunFile;
 import static org.thermotile.jobs.report.CurveSection.hours;
 
 import com.fasterxml.jackson.databind.JsonNode;
