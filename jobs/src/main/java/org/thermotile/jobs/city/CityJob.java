@@ -16,6 +16,9 @@ import org.apache.spark.sql.SparkSession;
 import org.apache.spark.storage.StorageLevel;
 import org.thermotile.jobs.catalogue.StacItem;
 import org.thermotile.jobs.errors.UserInputException;
+import org.thermotile.jobs.hotspots.HotspotOptions;
+import org.thermotile.jobs.hotspots.Hotspots;
+import org.thermotile.jobs.hotspots.ZoneHotspots;
 import org.thermotile.jobs.storage.Diagnose;
 import org.thermotile.jobs.storage.Folders;
 import org.thermotile.jobs.storage.InputStaging;
@@ -420,10 +423,10 @@ public final class CityJob {
         HotspotsBlock hs = HotspotsBlock.of(p.run(), p.grid().pixelWidth());
         if (hs != null) {
             for (String stat : hs.statistics()) {
-                org.thermotile.jobs.hotspots.Hotspots.run(spark, lay.dir(), hs.options(stat, p.run().tiling().tileSize()));
+                HotspotOptions options = hs.options(stat, p.run().tiling().tileSize());
+                Hotspots.run(spark, lay.dir(), options);
                 if (hs.zoneOptions() != null) {
-                    org.thermotile.jobs.hotspots.ZoneHotspots.run(spark, lay.dir(),
-                            hs.options(stat, p.run().tiling().tileSize()), hs.zoneOptions());
+                    ZoneHotspots.run(spark, lay.dir(), options, hs.zoneOptions());
                 }
             }
         }

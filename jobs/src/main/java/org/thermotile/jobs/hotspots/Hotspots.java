@@ -643,6 +643,20 @@ public final class Hotspots {
                 TiffMetadata.GDAL_METADATA, TiffMetadata.gdalMetadataXml(items, bandText)));
     }
 
+    /** The Moran's I scan that chose the distance band, as the summary's {@code moran_scan} (none: nothing). */
+    static void putMoranScan(ObjectNode root, MoransI.Result[] scan) {
+        if (scan == null) {
+            return;
+        }
+        ArrayNode s = root.putArray("moran_scan");
+        for (MoransI.Result m : scan) {
+            ObjectNode o = s.addObject();
+            o.put("distance_m", m.distanceM());
+            o.put("moran_i", m.i());
+            o.put("z", m.z());
+        }
+    }
+
     private static void writeSummary(Path file, Result r, Prepared p, GlobalMoments g, DistanceBand band,
             MoransI.Result[] scan, List<double[]> change, DistrictCells districts) throws IOException {
         ObjectMapper om = new ObjectMapper().enable(SerializationFeature.INDENT_OUTPUT);
@@ -657,15 +671,7 @@ public final class Hotspots {
         root.put("simulation_cells_per_analysis_cell", p.factor() * p.factor());
         root.put("distance_m", band.distanceM());
         root.put("distance_rule", r.distanceRule());
-        if (scan != null) {
-            ArrayNode s = root.putArray("moran_scan");
-            for (MoransI.Result m : scan) {
-                ObjectNode o = s.addObject();
-                o.put("distance_m", m.distanceM());
-                o.put("moran_i", m.i());
-                o.put("z", m.z());
-            }
-        }
+        putMoranScan(root, scan);
         root.put("weights", band.weights().key());
         root.put("band_cells", band.size());
         root.put("fdr_method", r.fdrMethod());

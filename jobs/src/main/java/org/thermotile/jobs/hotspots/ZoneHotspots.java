@@ -487,15 +487,7 @@ public final class ZoneHotspots {
         root.put("neighbours", "distance band between zone centroids, binary weights (Getis and Ord 1992)");
         root.put("distance_m", r.distanceM());
         root.put("distance_rule", r.distanceRule());
-        if (scan != null) {
-            ArrayNode s = root.putArray("moran_scan");
-            for (MoransI.Result m : scan) {
-                ObjectNode o = s.addObject();
-                o.put("distance_m", m.distanceM());
-                o.put("moran_i", m.i());
-                o.put("z", m.z());
-            }
-        }
+        Hotspots.putMoranScan(root, scan);
         root.put("fdr_method", r.fdrMethod());
         root.put("fdr", r.fdr());
         root.put("min_excess_k", opt.minExcessK());

@@ -1,12 +1,10 @@
 package org.thermotile.jobs.observe;
 
 import java.nio.file.Path;
-import java.util.ArrayList;
 import java.util.List;
 import org.thermotile.jobs.city.TileJobSpec;
 import org.thermotile.jobs.city.TileSpec;
 import org.thermotile.jobs.city.TileTask;
-import org.thermotile.jobs.errors.UserInputException;
 import org.thermotile.jobs.io.raster.GeoTiffReader;
 import org.thermotile.jobs.io.raster.RasterGrid;
 import org.thermotile.model.observe.PixelCells;
@@ -29,20 +27,9 @@ final class CalibrationSample {
         try (GeoTiffReader r = GeoTiffReader.openSingleBand(image)) {
             ig = r.grid();
         }
-        int w = ig.width();
-        int h = ig.height();
-        double[] corners = Observe.pixelCorners(image, ig, grid);
         PixelFootprints cells = new PixelFootprints(grid.originX(), grid.originY(), grid.pixelWidth(), grid.width(),
                 grid.height());
-        List<PixelFootprints.Footprint> out = new ArrayList<>(w * h);
-        for (int r = 0; r < h; r++) {
-            for (int c = 0; c < w; c++) {
-                int a = 2 * (r * (w + 1) + c), b = a + 2, d = 2 * ((r + 1) * (w + 1) + c + 1), e = d - 2;
-                out.add(cells.footprint(new double[] {corners[a], corners[b], corners[d], corners[e]},
-                        new double[] {corners[a + 1], corners[b + 1], corners[d + 1], corners[e + 1]}));
-            }
-        }
-        return out;
+        return Observe.footprints(image, ig, grid, cells);
     }
 
     /** The run's palette index of every grid cell (row-major), as the city job maps the baseline. */

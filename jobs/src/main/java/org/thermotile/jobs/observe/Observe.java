@@ -183,8 +183,7 @@ public final class Observe {
         }
         int w = ig.width();
         int h = ig.height();
-        double[] corners = pixelCorners(img.file(), ig, grid);
-        List<PixelFootprints.Footprint> fps = new ArrayList<>(w * h);
+        List<PixelFootprints.Footprint> fps = footprints(img.file(), ig, grid, cells);
         double[] obs = new double[w * h];
         int[] pixelOfCell = new int[cells.cols() * cells.rows()];
         Arrays.fill(pixelOfCell, -1);
@@ -192,11 +191,7 @@ public final class Observe {
         for (int r = 0; r < h; r++) {
             for (int c = 0; c < w; c++) {
                 int p = r * w + c;
-                int a = 2 * (r * (w + 1) + c), b = a + 2, d = 2 * ((r + 1) * (w + 1) + c + 1), e = d - 2;
-                PixelFootprints.Footprint f = cells.footprint(
-                        new double[] {corners[a], corners[b], corners[d], corners[e]},
-                        new double[] {corners[a + 1], corners[b + 1], corners[d + 1], corners[e + 1]});
-                fps.add(f);
+                PixelFootprints.Footprint f = fps.get(p);
                 double v = img.scaling().decode(raw[p]);
                 if (keep != null && !keep[p]) {
                     v = Double.NaN;
@@ -417,12 +412,13 @@ public final class Observe {
     }
 
     /**
-     * The image's pixel corners in the run's CRS: (w + 1) × (h + 1) points, row by row, x and y
-     * interleaved, transformed with Apache SIS.
+     * Every pixel's footprint on the run's cells, row-major over the image: its four corners
+     * transformed into the run's CRS with Apache SIS and clipped against the cells.
      *
      * @throws UserInputException when the image's CRS cannot be transformed to the run's
      */
-    static double[] pixelCorners(Object file, RasterGrid ig, RasterGrid grid) {
+    static List<PixelFootprints.Footprint> footprints(Object file, RasterGrid ig, RasterGrid grid,
+            PixelFootprints cells) {
         MathTransform tr;
         try {
             tr = CRS.findOperation(crsOf(ig), crsOf(grid), null).getMathTransform();
@@ -446,7 +442,15 @@ public final class Observe {
             throw new UserInputException(file + ": its pixel corners cannot be transformed to the run CRS ("
                     + e.getMessage() + "); fix: check the image's CRS");
         }
-        return corners;
+        List<PixelFootprints.Footprint> out = new ArrayList<>(w * h);
+        for (int r = 0; r < h; r++) {
+            for (int c = 0; c < w; c++) {
+                int a = 2 * (r * (w + 1) + c), b = a + 2, d = 2 * ((r + 1) * (w + 1) + c + 1), e = d - 2;
+                out.add(cells.footprint(new double[] {corners[a], corners[b], corners[d], corners[e]},
+                        new double[] {corners[a + 1], corners[b + 1], corners[d + 1], corners[e + 1]}));
+            }
+        }
+        return out;
     }
 
     private static CoordinateReferenceSystem crsOf(RasterGrid g) throws Exception {

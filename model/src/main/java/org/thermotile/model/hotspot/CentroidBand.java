@@ -173,23 +173,9 @@ public final class CentroidBand {
 
     /** Global Moran's I with these binary weights (self excluded), as {@link MoransI#of} on a raster. */
     public MoransI.Result moran(double[] values) {
-        int n = 0;
-        double sum = 0;
-        for (double v : values) {
-            if (!Double.isNaN(v)) {
-                n++;
-                sum += v;
-            }
-        }
-        if (n < 3) {
-            throw new IllegalArgumentException("Moran's I needs at least 3 valid zones, there are " + n);
-        }
-        double mean = sum / n, m2 = 0;
-        for (double v : values) {
-            if (!Double.isNaN(v)) {
-                m2 += (v - mean) * (v - mean);
-            }
-        }
+        MoransI.Moments mo = MoransI.Moments.of(values, "Moran's I needs at least 3 valid zones, there are ");
+        int n = mo.n();
+        double mean = mo.mean(), m2 = mo.m2();
         double cross = 0, s0 = 0, sumRow2 = 0;
         for (int i = 0; i < size(); i++) {
             if (Double.isNaN(values[i])) {

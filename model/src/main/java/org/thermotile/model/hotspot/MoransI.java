@@ -42,24 +42,9 @@ public final class MoransI {
             throw new IllegalArgumentException(values.length + " values for a " + w + " × " + h + " raster");
         }
         DistanceBand band = DistanceBand.of(distanceM, cellWidthM, cellHeightM, DistanceBand.Weights.BINARY);
-        int n = 0;
-        double sum = 0;
-        for (double v : values) {
-            if (!Double.isNaN(v)) {
-                n++;
-                sum += v;
-            }
-        }
-        if (n < 3) {
-            throw new IllegalArgumentException("Moran's I needs at least 3 valid cells, the field has " + n);
-        }
-        double mean = sum / n;
-        double m2 = 0;
-        for (double v : values) {
-            if (!Double.isNaN(v)) {
-                m2 += (v - mean) * (v - mean);
-            }
-        }
+        Moments mo = Moments.of(values, "Moran's I needs at least 3 valid cells, the field has ");
+        int n = mo.n();
+        double mean = mo.mean(), m2 = mo.m2();
         double cross = 0, s0 = 0, sumRow2 = 0;
         for (int r = 0; r < h; r++) {
             for (int c = 0; c < w; c++) {
@@ -91,6 +76,35 @@ public final class MoransI {
             }
         }
         return fromSums(distanceM, n, s0, sumRow2, cross, m2);
+    }
+
+    /**
+     * Count, mean and sum of squared deviations of the values with data, in two passes (the order
+     * of operations both Moran's I paths have always used).
+     */
+    record Moments(int n, double mean, double m2) {
+        /** @throws IllegalArgumentException {@code tooFew + n} when fewer than 3 values have data */
+        static Moments of(double[] values, String tooFew) {
+            int n = 0;
+            double sum = 0;
+            for (double v : values) {
+                if (!Double.isNaN(v)) {
+                    n++;
+                    sum += v;
+                }
+            }
+            if (n < 3) {
+                throw new IllegalArgumentException(tooFew + n);
+            }
+            double mean = sum / n;
+            double m2 = 0;
+            for (double v : values) {
+                if (!Double.isNaN(v)) {
+                    m2 += (v - mean) * (v - mean);
+                }
+            }
+            return new Moments(n, mean, m2);
+        }
     }
 
     /**
