@@ -215,14 +215,6 @@ public final class RunReport extends ReportSection {
         }
     }
 
-    // --------------------------------------------------------------------------------- curves
-
-    /** As {@link CurveSection#materialPanels}. */
-    static String materialPanels(List<Curves.Group> groups, java.util.function.Function<String, String> colour,
-            java.util.function.Function<String, String> dash) {
-        return CurveSection.materialPanels(groups, colour, dash);
-    }
-
     // ---------------------------------------------------------------------------------- files
 
     /** Observed thermal images ({@link ObservationSection}), only when the folder has {@code observed/}. */

@@ -45,7 +45,7 @@ class MaterialPanelsTest {
 
     @Test
     void eachKindIsOnePanelAndEachMaterialIsDrawnOnce() throws Exception {
-        String html = RunReport.materialPanels(groups(), k -> "#000000", k -> null);
+        String html = CurveSection.materialPanels(groups(), k -> "#000000", k -> null);
         DocumentBuilderFactory f = DocumentBuilderFactory.newInstance();
         Document doc = f.newDocumentBuilder().parse(new ByteArrayInputStream(html.getBytes(StandardCharsets.UTF_8)));
         NodeList figures = doc.getElementsByTagName("figure");
