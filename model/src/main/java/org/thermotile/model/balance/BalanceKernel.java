@@ -176,85 +176,155 @@ public final class BalanceKernel {
             }
         }
 
-        // 2. Surface: g(T) = a0 T + εσT⁴ + b q_sat(T) − R = 0, cell by cell.
+        // 2. Surface: g(T) = a0 T + εσT⁴ + b q_sat(T) − R = 0, a chunk of slots at a time.
         final double cap0 = capDt[0];
         final double cond0 = cond[0];
         final double a0 = block.surfaceSlope[g] + hc;
         final int row1 = row0 + stride;
-        for (int s = a; s < b; s++) {
-            final double pNext = n > 1 ? pj[row1 + s] : bottomTemp[s];
-            final double eps = block.emissivity[s];
-            final double beta = block.moisture[s];
-            final double es = eps * SIGMA;
-            final double bq = beta * evap;
-            final double t0Old = temp[row0 + s];
-            final double sw;
-            final double lwIn;
-            if (geometry) {
-                double psi = svf[s];
-                double bf = bStart[s] + hourFraction * (bEnd[s] - bStart[s]);
-                sw = block.absorptance[s] * GeometryFactors.shortwaveDownWm2(beamH, diffuseH, bf, psi);
-                lwIn = eps * GeometryFactors.longwaveDownWm2(psi, lDown, wallLw);
-            } else {
-                sw = block.absorptance[s] * kDown;
-                lwIn = eps * lDown;
-            }
-            final double qf = block.anthropogenicWm2[s];
-            final double rhs = cap0 * t0Old + cond0 * pNext + sw + lwIn + qf + hc * ta + bq * qa;
-
-            double t = t0Old;
-            double qsAt = 0, dqsAt = 0, tAt = t;
-            boolean converged = false;
-            for (int it = 0; it < NEWTON_MAX_ITERATIONS; it++) {
-                double t2 = t * t;
-                double gv = a0 * t + es * t2 * t2 - rhs;
-                double gp = a0 + 4.0 * es * t2 * t;
-                if (bq != 0) {
-                    double e = Psychrometrics.saturationVapourPressurePa(t);
-                    double de = Psychrometrics.saturationVapourPressureSlopePaK(t, e);
-                    double den = p - (1.0 - EPS_VAPOUR) * e;
-                    qsAt = EPS_VAPOUR * e / den;
-                    dqsAt = EPS_VAPOUR * p * de / (den * den);
-                    tAt = t;
-                    gv += bq * qsAt;
-                    gp += bq * dqsAt;
+        final SurfaceScratch sc = block.surfaceScratch;
+        final double[] rhsOf = sc.rhs;
+        final double[] esOf = sc.es;
+        final double[] bqOf = sc.bq;
+        final double[] swOf = sc.shortwave;
+        final double[] lwInOf = sc.longwaveIn;
+        final double[] tStart = sc.t[0];
+        for (int c0 = a; c0 < b; c0 += SurfaceScratch.CHUNK) {
+            final int len = Math.min(b - c0, SurfaceScratch.CHUNK);
+            // 2a. The right-hand side R and the coefficients of every cell of the chunk.
+            boolean evaporating = false;
+            for (int i = 0; i < len; i++) {
+                final int s = c0 + i;
+                final double pNext = n > 1 ? pj[row1 + s] : bottomTemp[s];
+                final double eps = block.emissivity[s];
+                final double bq = block.moisture[s] * evap;
+                final double t0Old = temp[row0 + s];
+                final double sw;
+                final double lwIn;
+                if (geometry) {
+                    double psi = svf[s];
+                    double bf = bStart[s] + hourFraction * (bEnd[s] - bStart[s]);
+                    sw = block.absorptance[s] * GeometryFactors.shortwaveDownWm2(beamH, diffuseH, bf, psi);
+                    lwIn = eps * GeometryFactors.longwaveDownWm2(psi, lDown, wallLw);
+                } else {
+                    sw = block.absorptance[s] * kDown;
+                    lwIn = eps * lDown;
                 }
-                double dT = gv / gp;
-                t -= dT;
-                if (Math.abs(dT) < NEWTON_TOLERANCE_K) {
-                    converged = true;
+                final double qf = block.anthropogenicWm2[s];
+                rhsOf[i] = cap0 * t0Old + cond0 * pNext + sw + lwIn + qf + hc * ta + bq * qa;
+                esOf[i] = eps * SIGMA;
+                bqOf[i] = bq;
+                swOf[i] = sw;
+                lwInOf[i] = lwIn;
+                tStart[i] = t0Old;
+                evaporating |= bq != 0;
+            }
+            // 2b. Newton iterations in lockstep across the chunk, each one a loop without branches,
+            // until every cell's update is below the tolerance (or LOCKSTEP iterations are done).
+            int done = 0;
+            while (done < SurfaceScratch.LOCKSTEP) {
+                if (evaporating) {
+                    newtonEvaporating(sc, done, len, a0, p);
+                } else {
+                    newtonDry(sc, done, len, a0);
+                }
+                final double[] dk = sc.d[done];
+                done++;
+                boolean all = true;
+                for (int i = 0; i < len; i++) {
+                    if (!(Math.abs(dk[i]) < NEWTON_TOLERANCE_K)) {
+                        all = false;
+                        break;
+                    }
+                }
+                if (all) {
                     break;
                 }
             }
-            if (!converged || !(t > 0)) {
-                t = bisect(a0, es, bq, rhs, p, t0Old);
-                if (bq != 0) {
-                    double e = Psychrometrics.saturationVapourPressurePa(t);
-                    double den = p - (1.0 - EPS_VAPOUR) * e;
-                    qsAt = EPS_VAPOUR * e / den;
-                    dqsAt = 0;
-                    tAt = t;
+            // 2c. Each cell takes the iterate at which its own Newton sequence stopped — the
+            // first update below the tolerance — so the result is the cell-by-cell sweep's, bit
+            // for bit; a cell still moving after the lockstep iterations goes on alone.
+            for (int i = 0; i < len; i++) {
+                final int s = c0 + i;
+                final double es = esOf[i];
+                final double bq = bqOf[i];
+                final double rhs = rhsOf[i];
+                final double t0Old = tStart[i];
+                double t = 0, qsAt = 0, dqsAt = 0, tAt = t0Old;
+                boolean converged = false;
+                for (int k = 0; k < done; k++) {
+                    if (Math.abs(sc.d[k][i]) < NEWTON_TOLERANCE_K) {
+                        t = sc.t[k + 1][i];
+                        if (bq != 0) {
+                            qsAt = sc.qs[k][i];
+                            dqsAt = sc.dqs[k][i];
+                            tAt = sc.t[k][i];
+                        }
+                        converged = true;
+                        break;
+                    }
                 }
-            }
-            temp[row0 + s] = t;
+                if (!converged) {
+                    t = sc.t[done][i];
+                    if (bq != 0) {
+                        qsAt = sc.qs[done - 1][i];
+                        dqsAt = sc.dqs[done - 1][i];
+                        tAt = sc.t[done - 1][i];
+                    }
+                    for (int it = done; it < NEWTON_MAX_ITERATIONS; it++) {
+                        double t2 = t * t;
+                        double gv = a0 * t + es * t2 * t2 - rhs;
+                        double gp = a0 + 4.0 * es * t2 * t;
+                        if (bq != 0) {
+                            double e = Psychrometrics.saturationVapourPressurePa(t);
+                            double de = Psychrometrics.saturationVapourPressureSlopePaK(t, e);
+                            double den = p - (1.0 - EPS_VAPOUR) * e;
+                            qsAt = EPS_VAPOUR * e / den;
+                            dqsAt = EPS_VAPOUR * p * de / (den * den);
+                            tAt = t;
+                            gv += bq * qsAt;
+                            gp += bq * dqsAt;
+                        }
+                        double dT = gv / gp;
+                        t -= dT;
+                        if (Math.abs(dT) < NEWTON_TOLERANCE_K) {
+                            converged = true;
+                            break;
+                        }
+                    }
+                }
+                if (!converged || !(t > 0)) {
+                    t = bisect(a0, es, bq, rhs, p, t0Old);
+                    if (bq != 0) {
+                        double e = Psychrometrics.saturationVapourPressurePa(t);
+                        double den = p - (1.0 - EPS_VAPOUR) * e;
+                        qsAt = EPS_VAPOUR * e / den;
+                        dqsAt = 0;
+                        tAt = t;
+                    }
+                }
+                temp[row0 + s] = t;
 
-            // The surface terms with the converged temperature (q_sat from its last linearisation).
-            double t2 = t * t;
-            double lwOut = es * t2 * t2;
-            double h = hc * (t - ta);
-            double le = bq == 0 ? 0.0 : bq * (qsAt + dqsAt * (t - tAt) - qa);
-            t0Of[s] = t0Old;
-            netOf[s] = sw + lwIn - lwOut - h - le + qf;
-            grossOf[s] = Math.abs(sw) + Math.abs(lwIn) + Math.abs(lwOut) + Math.abs(h)
-                    + Math.abs(le) + Math.abs(qf);
-            if (record) {
-                double[][] fl = block.flux;
-                fl[SurfaceBlock.Flux.NET_SHORTWAVE.ordinal()][s] += sw;
-                fl[SurfaceBlock.Flux.ABSORBED_SKY_LONGWAVE.ordinal()][s] += lwIn;
-                fl[SurfaceBlock.Flux.EMITTED_LONGWAVE.ordinal()][s] += lwOut;
-                fl[SurfaceBlock.Flux.SENSIBLE.ordinal()][s] += h;
-                fl[SurfaceBlock.Flux.LATENT.ordinal()][s] += le;
-                fl[SurfaceBlock.Flux.ANTHROPOGENIC.ordinal()][s] += qf;
+                // The surface terms with the converged temperature (q_sat from its last linearisation).
+                final double sw = swOf[i];
+                final double lwIn = lwInOf[i];
+                final double qf = block.anthropogenicWm2[s];
+                double t2 = t * t;
+                double lwOut = es * t2 * t2;
+                double h = hc * (t - ta);
+                double le = bq == 0 ? 0.0 : bq * (qsAt + dqsAt * (t - tAt) - qa);
+                t0Of[s] = t0Old;
+                netOf[s] = sw + lwIn - lwOut - h - le + qf;
+                grossOf[s] = Math.abs(sw) + Math.abs(lwIn) + Math.abs(lwOut) + Math.abs(h)
+                        + Math.abs(le) + Math.abs(qf);
+                if (record) {
+                    double[][] fl = block.flux;
+                    fl[SurfaceBlock.Flux.NET_SHORTWAVE.ordinal()][s] += sw;
+                    fl[SurfaceBlock.Flux.ABSORBED_SKY_LONGWAVE.ordinal()][s] += lwIn;
+                    fl[SurfaceBlock.Flux.EMITTED_LONGWAVE.ordinal()][s] += lwOut;
+                    fl[SurfaceBlock.Flux.SENSIBLE.ordinal()][s] += h;
+                    fl[SurfaceBlock.Flux.LATENT.ordinal()][s] += le;
+                    fl[SurfaceBlock.Flux.ANTHROPOGENIC.ordinal()][s] += qf;
+                }
             }
         }
 
@@ -296,6 +366,62 @@ public final class BalanceKernel {
                 fl[SurfaceBlock.Flux.BOTTOM.ordinal()][s] += bottom;
                 fl[SurfaceBlock.Flux.RESIDUAL.ordinal()][s] += netOf[s] - storage - bottom;
             }
+        }
+    }
+
+    /**
+     * Newton iteration {@code k} for every cell of a chunk without evaporation:
+     * {@code t[k+1] = t[k] − g/g′} with the cell-by-cell sweep's operations in its order (so the
+     * same bits); one counted loop without branches, which the JIT compiles to vector instructions.
+     */
+    private static void newtonDry(SurfaceScratch sc, int k, int len, double a0) {
+        final double[] tin = sc.t[k];
+        final double[] tout = sc.t[k + 1];
+        final double[] dk = sc.d[k];
+        final double[] es = sc.es;
+        final double[] rhs = sc.rhs;
+        for (int i = 0; i < len; i++) {
+            double t = tin[i];
+            double t2 = t * t;
+            double gv = a0 * t + es[i] * t2 * t2 - rhs[i];
+            double gp = a0 + 4.0 * es[i] * t2 * t;
+            double dT = gv / gp;
+            tout[i] = t - dT;
+            dk[i] = dT;
+        }
+    }
+
+    /**
+     * Newton iteration {@code k} for a chunk where some cells evaporate: q_sat linearised at
+     * {@code t[k]} and kept for the latent flux. For a cell with b = 0 the added terms are exact
+     * zeros (q_sat is finite), so its iterate is the dry one.
+     */
+    private static void newtonEvaporating(SurfaceScratch sc, int k, int len, double a0, double p) {
+        final double[] tin = sc.t[k];
+        final double[] tout = sc.t[k + 1];
+        final double[] dk = sc.d[k];
+        final double[] qk = sc.qs[k];
+        final double[] dqk = sc.dqs[k];
+        final double[] es = sc.es;
+        final double[] bq = sc.bq;
+        final double[] rhs = sc.rhs;
+        for (int i = 0; i < len; i++) {
+            double t = tin[i];
+            double t2 = t * t;
+            double gv = a0 * t + es[i] * t2 * t2 - rhs[i];
+            double gp = a0 + 4.0 * es[i] * t2 * t;
+            double e = Psychrometrics.saturationVapourPressurePa(t);
+            double de = Psychrometrics.saturationVapourPressureSlopePaK(t, e);
+            double den = p - (1.0 - EPS_VAPOUR) * e;
+            double q = EPS_VAPOUR * e / den;
+            double dq = EPS_VAPOUR * p * de / (den * den);
+            qk[i] = q;
+            dqk[i] = dq;
+            gv += bq[i] * q;
+            gp += bq[i] * dq;
+            double dT = gv / gp;
+            tout[i] = t - dT;
+            dk[i] = dT;
         }
     }
 

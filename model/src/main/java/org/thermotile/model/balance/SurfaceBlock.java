@@ -84,6 +84,8 @@ public final class SurfaceBlock {
     final double[] scratchNet;
     /** Scratch per slot: Σ |flux| of the surface terms [W m⁻²]. */
     final double[] scratchGross;
+    /** Scratch of the surface solve (one chunk of slots). */
+    final SurfaceScratch surfaceScratch = new SurfaceScratch();
 
     // Energy accounting per cell (by slot).
     /** Σ (surface flux − bottom flux)·Δt into the column [J m⁻²]. */
