@@ -14,8 +14,9 @@ import org.thermotile.model.materials.Material;
  * nodes sit at segment ends, each segment lies inside one layer, a node's heat capacity is half of
  * each adjacent segment's ρc·Δz, and the conductance between neighbours is k/Δz of the segment
  * between them. Segment thickness grows geometrically from {@code firstSegmentM} by
- * {@code growth} with depth (fine where the daily wave is strong, coarse where it has died out)
- * and never crosses a layer interface, so interfaces are nodes.
+ * {@code growth} with depth, and by {@code deepGrowth} once the segments reach {@code deepFromM}
+ * ({@link ColumnSpacing}: fine where the daily wave is strong, coarse where it has died out), and
+ * never crosses a layer interface, so interfaces are nodes.
  *
  * <p>Bottom: {@link BottomBoundary.Kind#DEEP_GROUND} fixes the temperature at the bottom of the
  * last layer (that node is not an unknown); {@link BottomBoundary.Kind#INDOOR_AIR} keeps the
@@ -25,9 +26,9 @@ import org.thermotile.model.materials.Material;
  */
 public final class ColumnGrid {
     /** Default thickness of the first segment below the surface [m] (resolves the diurnal wave). */
-    public static final double DEFAULT_FIRST_SEGMENT_M = 0.01;
+    public static final double DEFAULT_FIRST_SEGMENT_M = ColumnSpacing.STANDARD.firstSegmentM();
     /** Default growth of segment thickness with depth. */
-    public static final double DEFAULT_GROWTH = 1.3;
+    public static final double DEFAULT_GROWTH = ColumnSpacing.STANDARD.growth();
 
     /** Heat capacity of each unknown node [J m⁻² K⁻¹]. */
     public final double[] capacityJm2K;
@@ -55,19 +56,25 @@ public final class ColumnGrid {
 
     /** The grid of {@code material} with the default segment spacing. */
     public static ColumnGrid of(Material material) {
-        return of(material, DEFAULT_FIRST_SEGMENT_M, DEFAULT_GROWTH);
+        return of(material, ColumnSpacing.STANDARD);
     }
 
     /**
-     * The grid of {@code material}.
+     * The grid of {@code material} with one growth all the way down.
      *
      * @param firstSegmentM thickness of the first segment [m], &gt; 0
      * @param growth        ratio of successive segment thicknesses, ≥ 1
      */
     public static ColumnGrid of(Material material, double firstSegmentM, double growth) {
-        if (!(firstSegmentM > 0) || !(growth >= 1)) {
-            throw new IllegalArgumentException("segment spacing must be > 0 m with growth ≥ 1");
-        }
+        return of(material, ColumnSpacing.uniform(firstSegmentM, growth));
+    }
+
+    /** The grid of {@code material} with {@code spacing}. */
+    public static ColumnGrid of(Material material, ColumnSpacing spacing) {
+        double firstSegmentM = spacing.firstSegmentM();
+        double growth = spacing.growth();
+        double deepFromM = spacing.deepFromM();
+        double deepGrowth = spacing.deepGrowth();
         BottomBoundary.Kind bottom = material.bottom().kind();
         if (material.isSlab()) {
             double kBot = bottom == BottomBoundary.Kind.INDOOR_AIR
@@ -78,6 +85,7 @@ public final class ColumnGrid {
         // Segments, top-down: thickness, k, rho*c.
         List<double[]> segments = new ArrayList<>();
         double target = firstSegmentM;
+        double bottomOfSegments = 0;
         for (Layer layer : material.layers()) {
             double left = layer.thicknessM();
             while (left > 1e-12) {
@@ -89,7 +97,8 @@ public final class ColumnGrid {
                 }
                 segments.add(new double[] {dz, layer.conductivityWmK(), layer.volumetricHeatCapacityJm3K()});
                 left -= dz;
-                target *= growth;
+                bottomOfSegments += dz;
+                target *= bottomOfSegments >= deepFromM ? deepGrowth : growth;
             }
         }
         int nodesAll = segments.size() + 1; // vertex nodes at each segment end, surface included

@@ -57,11 +57,19 @@ public final class SingleSurface {
      */
     public static Result run(Material material, Forcing forcing, int substepMinutes,
             Convection convection, double deepGroundK, int firstReportedHour, double thresholdK) {
+        return run(material, forcing, substepMinutes, convection, deepGroundK, firstReportedHour, thresholdK,
+                ColumnSpacing.STANDARD);
+    }
+
+    /** As {@link #run(Material, Forcing, int, Convection, double, int, double)} with the conduction nodes spaced by {@code spacing}. */
+    public static Result run(Material material, Forcing forcing, int substepMinutes,
+            Convection convection, double deepGroundK, int firstReportedHour, double thresholdK,
+            ColumnSpacing spacing) {
         if (firstReportedHour < 1 || firstReportedHour >= forcing.hours()) {
             throw new IllegalArgumentException("the period after spin-up is empty: the weather has "
                     + forcing.hours() + " hours and reporting would start at hour " + firstReportedHour);
         }
-        SurfaceBlock block = new SurfaceBlock.Builder(1, true).cell(0, material, deepGroundK).build();
+        SurfaceBlock block = new SurfaceBlock.Builder(1, true, spacing).cell(0, material, deepGroundK).build();
         SubstepForcing sf = SubstepForcing.of(forcing, substepMinutes, convection);
         int n = forcing.hours() - firstReportedHour;
         long[] t = new long[n];

@@ -398,16 +398,20 @@ public final class SurfaceBlock {
         private final ColumnGrid[] grid;
         private final double[] bottomTemp;
         private final Map<List<Object>, ColumnGrid> grids = new HashMap<>();
-        private final double firstSegmentM;
-        private final double growth;
+        private final ColumnSpacing spacing;
 
-        /** A builder with the default conduction grid spacing. */
+        /** A builder with the standard conduction grid spacing. */
         public Builder(int cells, boolean recordFluxes) {
-            this(cells, recordFluxes, ColumnGrid.DEFAULT_FIRST_SEGMENT_M, ColumnGrid.DEFAULT_GROWTH);
+            this(cells, recordFluxes, ColumnSpacing.STANDARD);
         }
 
-        /** A builder with a given conduction grid spacing (see {@link ColumnGrid#of(Material, double, double)}). */
+        /** A builder with one growth all the way down (see {@link ColumnGrid#of(Material, double, double)}). */
         public Builder(int cells, boolean recordFluxes, double firstSegmentM, double growth) {
+            this(cells, recordFluxes, ColumnSpacing.uniform(firstSegmentM, growth));
+        }
+
+        /** A builder with a given conduction grid spacing (see {@link ColumnGrid#of(Material, ColumnSpacing)}). */
+        public Builder(int cells, boolean recordFluxes, ColumnSpacing spacing) {
             if (cells <= 0) {
                 throw new IllegalArgumentException("a block needs at least one cell");
             }
@@ -416,8 +420,7 @@ public final class SurfaceBlock {
             this.material = new Material[cells];
             this.grid = new ColumnGrid[cells];
             this.bottomTemp = new double[cells];
-            this.firstSegmentM = firstSegmentM;
-            this.growth = growth;
+            this.spacing = java.util.Objects.requireNonNull(spacing, "spacing");
         }
 
         /**
@@ -427,7 +430,7 @@ public final class SurfaceBlock {
         public Builder cell(int c, Material m, double defaultBottomTempK) {
             material[c] = m;
             grid[c] = grids.computeIfAbsent(List.of(m.layers(), m.bottom(), m.slabHeatCapacityJm2K()),
-                    k -> ColumnGrid.of(m, firstSegmentM, growth));
+                    k -> ColumnGrid.of(m, spacing));
             double t = m.bottom().temperatureK();
             // An adiabatic bottom has no temperature; 0 keeps the kernel's 0·T_b term finite.
             bottomTemp[c] = !grid[c].bottomFixed ? 0.0 : Double.isNaN(t) ? defaultBottomTempK : t;

@@ -57,7 +57,8 @@ public final class PixelSimulation implements java.io.Serializable {
         }
         this.forcing = truncate(forcing, last + 1);
         this.settings = new TileSimulation.Settings(settings.substepMinutes(), settings.convection(),
-                settings.deepGroundK(), settings.firstSampleHour(), settings.thresholdK(), outHours);
+                settings.deepGroundK(), settings.firstSampleHour(), settings.thresholdK(), outHours,
+                settings.columnSpacing());
     }
 
     /** Number of observations. */

@@ -2,6 +2,7 @@ package org.thermotile.model.tile;
 
 import java.util.Arrays;
 import org.thermotile.model.balance.BlockSimulation;
+import org.thermotile.model.balance.ColumnSpacing;
 import org.thermotile.model.balance.Convection;
 import org.thermotile.model.balance.SubstepForcing;
 import org.thermotile.model.balance.SurfaceBlock;
@@ -24,12 +25,23 @@ public final class TileSimulation {
     /** Marks a cell with no material (nodata in the land cover). */
     public static final int NO_MATERIAL = -1;
 
-    /** What a tile run needs besides its cells. */
+    /**
+     * What a tile run needs besides its cells; {@code columnSpacing} spaces the conduction nodes
+     * of every construction ({@link ColumnSpacing#STANDARD} unless a run names another).
+     */
     public record Settings(int substepMinutes, Convection convection, double deepGroundK,
-            int firstSampleHour, double thresholdK, int[] hourlyOutputHours)
+            int firstSampleHour, double thresholdK, int[] hourlyOutputHours, ColumnSpacing columnSpacing)
             implements java.io.Serializable {
         public Settings {
             hourlyOutputHours = hourlyOutputHours == null ? new int[0] : hourlyOutputHours.clone();
+            java.util.Objects.requireNonNull(columnSpacing, "columnSpacing");
+        }
+
+        /** Settings with the standard column spacing. */
+        public Settings(int substepMinutes, Convection convection, double deepGroundK,
+                int firstSampleHour, double thresholdK, int[] hourlyOutputHours) {
+            this(substepMinutes, convection, deepGroundK, firstSampleHour, thresholdK, hourlyOutputHours,
+                    ColumnSpacing.STANDARD);
         }
     }
 
@@ -210,7 +222,7 @@ public final class TileSimulation {
             return out;
         }
         int[] cellOf = new int[active];
-        SurfaceBlock.Builder builder = new SurfaceBlock.Builder(active, false);
+        SurfaceBlock.Builder builder = new SurfaceBlock.Builder(active, false, s.columnSpacing());
         for (int c = 0, a = 0; c < cells; c++) {
             int idx = materialIndex[c];
             if (idx != NO_MATERIAL) {
