@@ -132,7 +132,7 @@ public final class Calibrate {
             List<PixelCells> cells, PixelSimulation simulation) {}
 
     /**
-     * Draws the sample and reads each sampled pixel's cells (no evaluation yet).
+     * Draws the sample and reads the sampled pixels' cells, once per run tile (no evaluation yet).
      *
      * @param run     the run prepared again from its run file
      * @param results the comparison's results (one per image)
@@ -182,10 +182,11 @@ public final class Calibrate {
         try {
             Calibration.Observed obs = new Calibration.Observed(dominant, hours, observed);
             int[] sample = Calibration.stratifiedSample(obs, palette.length, PER_STRATUM, SEED);
-            List<PixelCells> cells = new ArrayList<>(sample.length);
+            List<PixelFootprints.Footprint> sampled = new ArrayList<>(sample.length);
             for (int p : sample) {
-                cells.add(CalibrationSample.cells(footprints.get(p), run.spec()));
+                sampled.add(footprints.get(p));
             }
+            List<PixelCells> cells = CalibrationSample.cells(sampled, run.spec(), run.run().tiling().tileSize());
             PixelSimulation sim = new PixelSimulation(forcing, run.spec().settings(), hours);
             return new Sample(palette, free, sample, Calibration.observedOf(obs, sample), cells, sim);
         } catch (IllegalArgumentException e) {

@@ -24,11 +24,15 @@ import org.thermotile.jobs.city.CityJob;
 import org.thermotile.jobs.city.PreparedRun;
 import org.thermotile.jobs.city.RunPreparer;
 import org.thermotile.jobs.city.SparkSessions;
+import org.thermotile.jobs.city.TileSpec;
+import org.thermotile.jobs.city.TileTask;
 import org.thermotile.jobs.config.RunFileReader;
 import org.thermotile.jobs.io.raster.GeoTiffWriter;
 import org.thermotile.jobs.io.raster.RasterGrid;
 import org.thermotile.model.observe.Calibration;
+import org.thermotile.model.observe.PixelCells;
 import org.thermotile.model.observe.PixelFootprints;
+import org.thermotile.model.tile.TileSimulation;
 
 /**
  * Calibration on a small invented city with urban geometry (24 × 20 cells of 5 m: streets, dark
@@ -250,6 +254,60 @@ class CalibrateJobTest {
             assertTrue(parts.anyMatch(f -> f.getFileName().toString().equals("part-00000.snappy.parquet")),
                     "canonical part name");
         }
+    }
+
+    /**
+     * The sampled pixels' cells, read once per run tile and cut per pixel, equal each pixel's
+     * bounding window read alone through {@link TileTask#inputs} (the city job's path): the same
+     * materials, areas and geometry window with its halo, value for value, for pixels inside a tile,
+     * across a tile edge and with a halo reaching outside the raster.
+     */
+    @Test
+    void cellsCutFromOneReadPerTileEqualEachPixelReadAlone() throws Exception {
+        image("cut13", hour(libraryRun, DAY), 0, 3);
+        ObservationSet set = observations("cut", "cut13.tif", "2026-07-15T11:00:00Z");
+        List<Calibrate.ObserveResultView> views = compare(libraryRun, set);
+        List<PixelFootprints.Footprint> footprints = CalibrationSample.footprints(views.get(0).imageFile(), grid);
+        Calibrate.Sample s = Calibrate.sample(libraryRun, library, views, List.of("albedo"));
+        boolean acrossEdge = false;
+        boolean atGridEdge = false;
+        for (int i = 0; i < s.sample().length; i++) {
+            PixelFootprints.Footprint f = footprints.get(s.sample()[i]);
+            int c0 = Integer.MAX_VALUE, r0 = Integer.MAX_VALUE, c1 = -1, r1 = -1;
+            for (int cell : f.cells()) {
+                c0 = Math.min(c0, cell % W);
+                c1 = Math.max(c1, cell % W);
+                r0 = Math.min(r0, cell / W);
+                r1 = Math.max(r1, cell / W);
+            }
+            acrossEdge |= c0 / 16 != c1 / 16 || r0 / 16 != r1 / 16;
+            int w = c1 - c0 + 1;
+            TileTask.Inputs alone = TileTask.inputs(new TileSpec(0, c0, r0, w, r1 - r0 + 1), library.spec());
+            int halo = alone.geometry().haloCells();
+            atGridEdge |= c0 < halo || r0 < halo || c1 + halo >= W || r1 + halo >= H;
+            double[] areas = new double[w * (r1 - r0 + 1)];
+            for (int k = 0; k < f.cells().length; k++) {
+                areas[(f.cells()[k] / W - r0) * w + f.cells()[k] % W - c0] += f.areas()[k];
+            }
+            int[] idx = alone.materialIndex().clone();
+            for (int k = 0; k < idx.length; k++) {
+                idx[k] = areas[k] > 0 ? idx[k] : TileSimulation.NO_MATERIAL;
+            }
+            PixelCells cut = s.cells().get(i);
+            assertArrayEquals(idx, cut.materialIndex(), "pixel " + i + " materials");
+            assertArrayEquals(areas, cut.areasM2(), "pixel " + i + " areas");
+            TileSimulation.Geometry a = alone.geometry();
+            TileSimulation.Geometry b = cut.geometry();
+            assertEquals(List.of(a.windowCols(), a.windowRows(), a.haloCells()),
+                    List.of(b.windowCols(), b.windowRows(), b.haloCells()), "pixel " + i + " window");
+            assertArrayEquals(a.heightsM(), b.heightsM(), "pixel " + i + " building heights");
+            assertArrayEquals(a.treeHeightsM(), b.treeHeightsM(), "pixel " + i + " tree heights");
+            assertEquals(List.of(a.cellM(), a.searchRadiusM(), a.directions(), a.canopyTransmissivity(),
+                    a.minSunElevationDeg(), a.wallEmissivity()), List.of(b.cellM(), b.searchRadiusM(), b.directions(),
+                    b.canopyTransmissivity(), b.minSunElevationDeg(), b.wallEmissivity()), "pixel " + i + " settings");
+        }
+        assertTrue(acrossEdge, "a sampled pixel straddles a tile edge");
+        assertTrue(atGridEdge, "a sampled pixel's halo reaches outside the raster");
     }
 
     /**
