@@ -251,7 +251,8 @@ class BadInputCatalogueTest {
                 fails("unordered hours", weather(t -> {
                     String a = "2026-07-13T05:00+02:00", b = "2026-07-13T06:00+02:00";
                     return t.replace(a, "@@").replace(b, a).replace("@@", b);
-                }), "weather.csv, line 60, column time", "1 hour missing"),
+                }), "weather.csv, line 61, column time", "the hours are out of order: \"2026-07-13T05:00+02:00\" is earlier than "
+                        + "2026-07-13T06:00+02:00 on line 60", "sort the rows by time"),
                 fails("times without offsets", weather(t -> t.replace("+02:00,", ",")), "weather.csv, line 7, column time", "not a time with offset"),
                 fails("another year", weather(t -> t.replace("2026-07-", "2025-07-")), "weather.csv"),
                 fails("latin-1 comment", weatherBytes(b -> {

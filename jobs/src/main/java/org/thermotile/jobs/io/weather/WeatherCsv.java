@@ -358,9 +358,7 @@ public final class WeatherCsv {
                             + "\", already on line " + prevLine, "keep one row per hour");
                 }
                 if (step < 0) {
-                    throw new WeatherCsvException(source, lineNo, TIME, "time \"" + text + "\" is earlier than "
-                            + prevText + " on line " + prevLine + "; times must strictly increase",
-                            "sort the rows by time");
+                    throw outOfOrder(lineNo, text, prevText, prevLine);
                 }
                 if (step % HOUR_S != 0) {
                     throw new WeatherCsvException(source, lineNo, TIME, "time \"" + text + "\" is " + step / 60
@@ -374,12 +372,62 @@ public final class WeatherCsv {
                             + (missing > 1 ? "s" : "")
                             : "gaps are filled up to " + gapFill.maxHours() + " hour"
                                     + (gapFill.maxHours() > 1 ? "s" : "") + " only";
-                    throw new WeatherCsvException(source, lineNo, TIME, missing + " hour" + (missing > 1 ? "s" : "")
-                            + " missing between " + prevText + " (line " + prevLine + ") and " + text,
-                            "add the missing rows, " + allow);
+                    WeatherCsvException gap = new WeatherCsvException(source, lineNo, TIME, missing + " hour"
+                            + (missing > 1 ? "s" : "") + " missing between " + prevText + " (line " + prevLine
+                            + ") and " + text, "add the missing rows, " + allow);
+                    WeatherCsvException unordered = backwardsAfter(t);
+                    throw unordered != null ? unordered : gap;
                 }
             }
             return t;
+        }
+
+        /** A row whose time is earlier than the row before it: the hours are out of order. */
+        private WeatherCsvException outOfOrder(int line, String text, String prevText, int prevLine) {
+            return new WeatherCsvException(source, line, TIME, "the hours are out of order: \"" + text
+                    + "\" is earlier than " + prevText + " on line " + prevLine + ", the row before",
+                    "sort the rows by time, earliest first (one row per hour)");
+        }
+
+        /**
+         * After a gap too long to fill at the current line (time {@code t}), whether the hours
+         * merely come out of order: the following lines' time cells are read on until one is
+         * earlier than the row before it (that row's out-of-order error, which explains the gap),
+         * or a line cannot be read as a row (null: the gap is the first problem).
+         */
+        private WeatherCsvException backwardsAfter(long t) {
+            long prev = t;
+            int prevLine = lineNo;
+            String line;
+            try {
+                while ((line = in.readLine()) != null) {
+                    int here = ++lineNo;
+                    String trimmed = line.strip();
+                    if (trimmed.isEmpty() || trimmed.startsWith("#")) {
+                        continue;
+                    }
+                    String[] cells = line.split(",", -1);
+                    if (cells.length != cellCount) {
+                        return null;
+                    }
+                    String cell = cells[timeCell].strip();
+                    OffsetDateTime odt;
+                    try {
+                        odt = OffsetDateTime.parse(cell);
+                    } catch (DateTimeParseException e) {
+                        return null;
+                    }
+                    long now = odt.toEpochSecond();
+                    if (now < prev) {
+                        return outOfOrder(here, cell, format(prev, offset), prevLine);
+                    }
+                    prev = now;
+                    prevLine = here;
+                }
+            } catch (IOException e) {
+                return null; // the gap stays the error to report
+            }
+            return null;
         }
 
         private double value(Column c, String text) {

@@ -382,6 +382,31 @@ class WeatherCsvTest {
         assertPlace(back, 3, "time");
         assertTrue(text(back).contains("is earlier than 2026-07-14T05:00+02:00 on line 2"), text(back));
 
+        assertTrue(text(back).contains("the hours are out of order"), text(back));
+        assertTrue(text(back).contains("sort the rows by time"), text(back));
+
+        // Two hours swapped: the forward jump on line 3 is not reported as a missing hour, the row
+        // that comes back (line 4) is the one named.
+        WeatherCsvException swapped = fails(first + "2026-07-14T07:00+02:00,21,50,2,0\n"
+                + "2026-07-14T06:00+02:00,21,50,2,0\n2026-07-14T08:00+02:00,21,50,2,0\n");
+        assertPlace(swapped, 4, "time");
+        assertTrue(text(swapped).contains("the hours are out of order: \"2026-07-14T06:00+02:00\" is earlier than "
+                + "2026-07-14T07:00+02:00 on line 3"), text(swapped));
+        assertFalse(text(swapped).contains("missing"), text(swapped));
+        // A block moved later: the row that goes back is found past the rows in order after the
+        // jump, across a comment.
+        WeatherCsvException moved = fails(first + "2026-07-14T08:00+02:00,21,50,2,0\n"
+                + "2026-07-14T09:00+02:00,21,50,2,0\n# block\n2026-07-14T06:00+02:00,21,50,2,0\n"
+                + "2026-07-14T07:00+02:00,21,50,2,0\n");
+        assertPlace(moved, 6, "time");
+        assertTrue(text(moved).contains("\"2026-07-14T06:00+02:00\" is earlier than 2026-07-14T09:00+02:00 on line 4"),
+                text(moved));
+        // A true gap (no row comes back) stays a gap, named where it is.
+        WeatherCsvException gap = fails(first + "2026-07-14T07:00+02:00,21,50,2,0\n"
+                + "2026-07-14T08:00+02:00,21,50,2,0\n");
+        assertPlace(gap, 3, "time");
+        assertTrue(text(gap).contains("1 hour missing between 2026-07-14T05:00+02:00 (line 2)"), text(gap));
+
         WeatherCsvException half = fails(first + "2026-07-14T05:30+02:00,21,50,2,0\n");
         assertPlace(half, 3, "time");
         assertTrue(text(half).contains("is 30 min after 2026-07-14T05:00+02:00"), text(half));
