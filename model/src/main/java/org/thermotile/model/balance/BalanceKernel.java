@@ -249,27 +249,18 @@ public final class BalanceKernel {
                 final double bq = bqOf[i];
                 final double rhs = rhsOf[i];
                 final double t0Old = tStart[i];
-                double t = 0, qsAt = 0, dqsAt = 0, tAt = t0Old;
-                boolean converged = false;
-                for (int k = 0; k < done; k++) {
-                    if (Math.abs(sc.d[k][i]) < NEWTON_TOLERANCE_K) {
-                        t = sc.t[k + 1][i];
-                        if (bq != 0) {
-                            qsAt = sc.qs[k][i];
-                            dqsAt = sc.dqs[k][i];
-                            tAt = sc.t[k][i];
-                        }
-                        converged = true;
-                        break;
-                    }
+                // The iterate the cell keeps and the iteration whose linearisation of q_sat goes with it.
+                final int stop = stoppedAt(sc, i, done);
+                boolean converged = stop >= 0;
+                final int from = converged ? stop : done - 1;
+                double t = sc.t[from + 1][i];
+                double qsAt = 0, dqsAt = 0, tAt = t0Old;
+                if (bq != 0) {
+                    qsAt = sc.qs[from][i];
+                    dqsAt = sc.dqs[from][i];
+                    tAt = sc.t[from][i];
                 }
                 if (!converged) {
-                    t = sc.t[done][i];
-                    if (bq != 0) {
-                        qsAt = sc.qs[done - 1][i];
-                        dqsAt = sc.dqs[done - 1][i];
-                        tAt = sc.t[done - 1][i];
-                    }
                     for (int it = done; it < NEWTON_MAX_ITERATIONS; it++) {
                         double t2 = t * t;
                         double gv = a0 * t + es * t2 * t2 - rhs;
@@ -367,6 +358,16 @@ public final class BalanceKernel {
                 fl[SurfaceBlock.Flux.RESIDUAL.ordinal()][s] += netOf[s] - storage - bottom;
             }
         }
+    }
+
+    /** The first lockstep iteration whose update of cell {@code i} was below the tolerance, or −1. */
+    private static int stoppedAt(SurfaceScratch sc, int i, int done) {
+        for (int k = 0; k < done; k++) {
+            if (Math.abs(sc.d[k][i]) < NEWTON_TOLERANCE_K) {
+                return k;
+            }
+        }
+        return -1;
     }
 
     /**
