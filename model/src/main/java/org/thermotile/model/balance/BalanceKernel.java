@@ -119,8 +119,8 @@ public final class BalanceKernel {
      * node across the cells; the surface equation cell by cell; the back-substitution node by
      * node across the cells; the energy accounting cell by cell. Each cell sees exactly the
      * operations, in the same order, of a cell-at-a-time sweep ({@link CellMajorKernel}), so the
-     * bits are the same; the node loops are simple counted loops over contiguous rows, which the
-     * JIT compiles to vector instructions.
+     * bits are the same; the node loops are simple counted loops that write one node row from
+     * another, each row its own array, which the JIT compiles to vector instructions.
      */
     private static void stepGroup(SurfaceBlock block, SubstepForcing sf, int m, int g, int a, int b) {
         final double dt = sf.dtSeconds;
@@ -131,8 +131,8 @@ public final class BalanceKernel {
         final double evap = sf.evaporationConductance[m];
         final double kDown = sf.ghiWm2[m];
         final double lDown = sf.skyLongwaveWm2[m];
-        final double[] temp = block.tempK;
-        final double[] pj = block.scratchP;
+        final double[][] temp = block.tempRows[g];
+        final double[][] pRow = block.scratchRows[g];
         final double[] capDt = block.capOverDt[g];
         final double[] cond = block.conductanceDownWm2K[g];
         final double[] invDen = block.invDen[g];
@@ -154,33 +154,25 @@ public final class BalanceKernel {
                 ? GeometryFactors.wallEmittedWm2(block.wallEmissivity, GeometryFactors.wallTempK(ta)) : 0.0;
 
         final int n = block.groupNodes[g];
-        final int stride = block.groupCells(g);
+        // Node k of slot s is temp[k][s − first]; the group's cells [a, b) are rows' [ia, ib).
         final int first = block.groupSlotStart[g];
-        // Node k of slot s is at row(k) + s: row(k) = base + k·stride − first.
-        final int row0 = block.groupBase[g] - first;
-        final int rowLast = row0 + (n - 1) * stride;
+        final int ia = a - first;
+        final int ib = b - first;
+        final double[] t0Row = temp[0];
+        final double[] tLast = temp[n - 1];
+        final double[] t1Row = n > 1 ? temp[1] : null;
+        final double[] p1Row = n > 1 ? pRow[1] : null;
         final boolean bottomFixed = block.groupBottomFixed[g];
 
         // 1. Bottom-up elimination: P_j = (C_j/Δt T_j + K_j P_{j+1}) / den_j, boundary P = T_b.
         if (n > 1) {
-            final double c = capDt[n - 1], k = cond[n - 1], inv = invDen[n - 1];
-            for (int s = a; s < b; s++) {
-                pj[rowLast + s] = (c * temp[rowLast + s] + k * bottomTemp[s]) * inv;
-            }
-            for (int j = n - 2, r = rowLast - stride; j > 0; j--, r -= stride) {
-                final double cj = capDt[j], kj = cond[j], invj = invDen[j];
-                final int below = r + stride;
-                for (int s = a; s < b; s++) {
-                    pj[r + s] = (cj * temp[r + s] + kj * pj[below + s]) * invj;
-                }
-            }
+            eliminate(temp, pRow, capDt, cond, invDen, bottomTemp, first, ia, ib);
         }
 
         // 2. Surface: g(T) = a0 T + εσT⁴ + b q_sat(T) − R = 0, a chunk of slots at a time.
         final double cap0 = capDt[0];
         final double cond0 = cond[0];
         final double a0 = block.surfaceSlope[g] + hc;
-        final int row1 = row0 + stride;
         final SurfaceScratch sc = block.surfaceScratch;
         final double[] rhsOf = sc.rhs;
         final double[] esOf = sc.es;
@@ -194,10 +186,10 @@ public final class BalanceKernel {
             boolean evaporating = false;
             for (int i = 0; i < len; i++) {
                 final int s = c0 + i;
-                final double pNext = n > 1 ? pj[row1 + s] : bottomTemp[s];
+                final double pNext = n > 1 ? p1Row[s - first] : bottomTemp[s];
                 final double eps = block.emissivity[s];
                 final double bq = block.moisture[s] * evap;
-                final double t0Old = temp[row0 + s];
+                final double t0Old = t0Row[s - first];
                 final double sw;
                 final double lwIn;
                 if (geometry) {
@@ -293,7 +285,7 @@ public final class BalanceKernel {
                         tAt = t;
                     }
                 }
-                temp[row0 + s] = t;
+                t0Row[s - first] = t;
 
                 // The surface terms with the converged temperature (q_sat from its last linearisation).
                 final double sw = swOf[i];
@@ -320,12 +312,8 @@ public final class BalanceKernel {
         }
 
         // 3. Back-substitution: T_j = P_j + Q_j T_{j−1}, node by node across the cells.
-        for (int j = 1, r = row1; j < n; j++, r += stride) {
-            final double qj = up[j];
-            final int above = r - stride;
-            for (int s = a; s < b; s++) {
-                temp[r + s] = pj[r + s] + qj * temp[above + s];
-            }
+        for (int j = 1; j < n; j++) {
+            substitute(temp[j], pRow[j], up[j], temp[j - 1], ia, ib);
         }
 
         // 4. Energy accounting with the converged temperatures.
@@ -333,16 +321,16 @@ public final class BalanceKernel {
         final double[] energyIn = block.energyInJm2;
         final double[] energyGross = block.energyGrossJm2;
         for (int s = a; s < b; s++) {
-            double bottom = bottomFixed ? condLast * (temp[rowLast + s] - bottomTemp[s]) : 0.0;
+            double bottom = bottomFixed ? condLast * (tLast[s - first] - bottomTemp[s]) : 0.0;
             energyIn[s] += (netOf[s] - bottom) * dt;
             energyGross[s] += (grossOf[s] + Math.abs(bottom)) * dt;
         }
         if (record) {
             double[][] fl = block.flux;
             for (int s = a; s < b; s++) {
-                double t = temp[row0 + s];
-                double bottom = bottomFixed ? condLast * (temp[rowLast + s] - bottomTemp[s]) : 0.0;
-                double gc = n > 1 ? cond0 * (t - temp[row1 + s]) : bottom;
+                double t = t0Row[s - first];
+                double bottom = bottomFixed ? condLast * (tLast[s - first] - bottomTemp[s]) : 0.0;
+                double gc = n > 1 ? cond0 * (t - t1Row[s - first]) : bottom;
                 // gc: conduction from the surface node to the node below it (the bottom flux for
                 // a single node). ΔQ_S = Σ C_j ΔT_j / Δt over the whole construction, surface node
                 // included; the node equations j ≥ 1 telescope to gc − bottom, so only the surface
@@ -357,6 +345,36 @@ public final class BalanceKernel {
                 fl[SurfaceBlock.Flux.BOTTOM.ordinal()][s] += bottom;
                 fl[SurfaceBlock.Flux.RESIDUAL.ordinal()][s] += netOf[s] - storage - bottom;
             }
+        }
+    }
+
+    /** The bottom-up elimination of rows n−1 … 1 over the group's cells [ia, ib). */
+    private static void eliminate(double[][] temp, double[][] pRow, double[] capDt, double[] cond,
+            double[] invDen, double[] bottomTemp, int first, int ia, int ib) {
+        final int n = temp.length;
+        final double c = capDt[n - 1], k = cond[n - 1], inv = invDen[n - 1];
+        final double[] pLast = pRow[n - 1];
+        final double[] tLast = temp[n - 1];
+        for (int i = ia; i < ib; i++) {
+            pLast[i] = (c * tLast[i] + k * bottomTemp[i + first]) * inv;
+        }
+        for (int j = n - 2; j > 0; j--) {
+            eliminateRow(pRow[j], temp[j], pRow[j + 1], capDt[j], cond[j], invDen[j], ia, ib);
+        }
+    }
+
+    /** One row of the elimination: P_j = (C_j/Δt T_j + K_j P_{j+1}) / den_j. */
+    private static void eliminateRow(double[] pj, double[] tj, double[] below, double cj, double kj,
+            double invj, int ia, int ib) {
+        for (int i = ia; i < ib; i++) {
+            pj[i] = (cj * tj[i] + kj * below[i]) * invj;
+        }
+    }
+
+    /** One row of the back-substitution: T_j = P_j + Q_j T_{j−1}. */
+    private static void substitute(double[] tj, double[] pj, double qj, double[] above, int ia, int ib) {
+        for (int i = ia; i < ib; i++) {
+            tj[i] = pj[i] + qj * above[i];
         }
     }
 

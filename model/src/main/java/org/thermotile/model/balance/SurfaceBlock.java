@@ -16,11 +16,13 @@ import org.thermotile.model.materials.Material;
  * spacing) form a <em>group</em>; the groups are numbered in order of their first cell, and
  * inside the block every cell has a <em>slot</em>: the slots of a group are contiguous, its cells
  * in ascending cell order. Per-cell arrays are indexed by slot. A group of {@code m} cells and
- * {@code n} nodes owns {@code n·m} consecutive entries of the node arrays, stored node-major: node
- * {@code k} of the group's {@code i}-th cell is at {@code groupBase[g] + k·m + i}. The nodes' heat
- * capacities, conductances and implicit-step coefficients are the group's, once per node, so each
- * Thomas sweep of {@link BalanceKernel} runs node by node as a plain loop across the group's cells
- * (which the JIT vectorises). Public accessors take cell indices, as the builder does.
+ * {@code n} nodes owns {@code n} node rows of {@code m} entries each, stored node-major: node
+ * {@code k} of the group's {@code i}-th cell is {@code tempRows[g][k][i]}. Each row is an array of
+ * its own, so a Thomas sweep of {@link BalanceKernel}, which writes one row from the row beside it,
+ * reads and writes different arrays: the JIT then knows they do not overlap and compiles the loop
+ * across the group's cells to vector instructions (with the rows at offsets of one array it does
+ * not). The nodes' heat capacities, conductances and implicit-step coefficients are the group's,
+ * once per node. Public accessors take cell indices, as the builder does.
  * Built by {@link Builder}; the kernel mutates only the state arrays.
  */
 public final class SurfaceBlock {
@@ -33,8 +35,8 @@ public final class SurfaceBlock {
     final int[] cellOfSlot;
     /** True when every cell is its own slot (one group, or groups already in cell order). */
     final boolean identityOrder;
-    /** Index in the node arrays of each cell's surface node (by cell). */
-    final int[] surfaceIndexOfCell;
+    /** Index of each cell inside its group's node rows (by cell): slot − first slot of the group. */
+    final int[] indexInGroup;
     /** Group of each cell (by cell). */
     final int[] groupOfCell;
 
@@ -42,8 +44,6 @@ public final class SurfaceBlock {
     final int groups;
     /** First slot of each group, and {@code groupSlotStart[groups] == cells}. */
     final int[] groupSlotStart;
-    /** Start of each group's node-major run in the node arrays. */
-    final int[] groupBase;
     /** Nodes per cell of each group. */
     final int[] groupNodes;
     /** Whether each group's bottom boundary is held at a temperature (else adiabatic). */
@@ -73,11 +73,11 @@ public final class SurfaceBlock {
     /** Bottom-boundary temperature [K] (deep ground or indoor air; 0 when adiabatic). */
     final double[] bottomTempK;
 
-    // Node state and scratch (node-major per group).
-    /** Node temperatures [K]. */
-    final double[] tempK;
-    /** Scratch: the eliminated right-hand sides P_j. */
-    final double[] scratchP;
+    // Node state and scratch: per group, one row per node, one entry per cell of the group.
+    /** Node temperatures [K], {@code [group][node][index in group]}. */
+    final double[][][] tempRows;
+    /** Scratch: the eliminated right-hand sides P_j, laid out as {@link #tempRows}. */
+    final double[][][] scratchRows;
     /** Scratch per slot between the kernel's passes: surface temperature before the step [K]. */
     final double[] scratchT0;
     /** Scratch per slot: net surface flux Q* + Q_F − H − LE [W m⁻²]. */
@@ -119,7 +119,6 @@ public final class SurfaceBlock {
         for (int g = 0; g < groups; g++) {
             groupSlotStart[g + 1] += groupSlotStart[g];
         }
-        groupBase = new int[groups];
         groupNodes = new int[groups];
         groupBottomFixed = new boolean[groups];
         capacityJm2K = new double[groups][];
@@ -129,11 +128,14 @@ public final class SurfaceBlock {
         invDen = new double[groups][];
         coupleUp = new double[groups][];
         surfaceSlope = new double[groups];
-        int total = 0;
+        tempRows = new double[groups][][];
+        scratchRows = new double[groups][][];
         for (int g = 0; g < groups; g++) {
             ColumnGrid grid = gridOfGroup[g];
             int n = grid.nodes();
-            groupBase[g] = total;
+            int m = groupSlotStart[g + 1] - groupSlotStart[g];
+            tempRows[g] = new double[n][m];
+            scratchRows[g] = new double[n][m];
             groupNodes[g] = n;
             groupBottomFixed[g] = grid.bottomFixed;
             capacityJm2K[g] = grid.capacityJm2K.clone();
@@ -142,11 +144,10 @@ public final class SurfaceBlock {
             capOverDt[g] = new double[n];
             invDen[g] = new double[n];
             coupleUp[g] = new double[n];
-            total = Math.addExact(total, Math.multiplyExact(n, groupSlotStart[g + 1] - groupSlotStart[g]));
         }
         slotOfCell = new int[cells];
         cellOfSlot = new int[cells];
-        surfaceIndexOfCell = new int[cells];
+        indexInGroup = new int[cells];
         int[] next = Arrays.copyOf(groupSlotStart, groups);
         boolean identity = true;
         for (int c = 0; c < cells; c++) {
@@ -154,7 +155,7 @@ public final class SurfaceBlock {
             int slot = next[g]++;
             slotOfCell[c] = slot;
             cellOfSlot[slot] = c;
-            surfaceIndexOfCell[c] = groupBase[g] + (slot - groupSlotStart[g]);
+            indexInGroup[c] = slot - groupSlotStart[g];
             identity &= slot == c;
         }
         identityOrder = identity;
@@ -163,8 +164,6 @@ public final class SurfaceBlock {
         moisture = new double[cells];
         anthropogenicWm2 = new double[cells];
         bottomTempK = new double[cells];
-        tempK = new double[total];
-        scratchP = new double[total];
         scratchT0 = new double[cells];
         scratchNet = new double[cells];
         scratchGross = new double[cells];
@@ -211,13 +210,12 @@ public final class SurfaceBlock {
 
     /** Surface temperature of cell {@code c} [K]. */
     public double surfaceTempK(int c) {
-        return tempK[surfaceIndexOfCell[c]];
+        return tempRows[groupOfCell[c]][0][indexInGroup[c]];
     }
 
     /** Temperature of node {@code j} (0 = surface) of cell {@code c} [K]. */
     public double nodeTempK(int c, int j) {
-        int g = groupOfCell[c];
-        return tempK[surfaceIndexOfCell[c] + j * groupCells(g)];
+        return tempRows[groupOfCell[c]][j][indexInGroup[c]];
     }
 
     /** Depth of node {@code j} of cell {@code c} [m]. */
@@ -237,10 +235,11 @@ public final class SurfaceBlock {
     public double heatContentJm2(int c) {
         int g = groupOfCell[c];
         double[] cap = capacityJm2K[g];
-        int stride = groupCells(g);
+        double[][] rows = tempRows[g];
+        int i = indexInGroup[c];
         double s = 0;
-        for (int j = 0, i = surfaceIndexOfCell[c]; j < cap.length; j++, i += stride) {
-            s += cap[j] * tempK[i];
+        for (int j = 0; j < cap.length; j++) {
+            s += cap[j] * rows[j][i];
         }
         return s;
     }
@@ -376,13 +375,14 @@ public final class SurfaceBlock {
             int g = groupOfCell[c];
             int slot = slotOfCell[c];
             int n = groupNodes[g];
-            int stride = groupCells(g);
+            double[][] rows = tempRows[g];
+            int i = indexInGroup[c];
             double[] depth = depthM[g];
             double bottomDepth = depth[n - 1];
             boolean fixed = groupBottomFixed[g];
-            for (int j = 0, i = surfaceIndexOfCell[c]; j < n; j++, i += stride) {
+            for (int j = 0; j < n; j++) {
                 double f = (fixed && bottomDepth > 0) ? depth[j] / bottomDepth : 0;
-                tempK[i] = surfaceTempK + f * (bottomTempK[slot] - surfaceTempK);
+                rows[j][i] = surfaceTempK + f * (bottomTempK[slot] - surfaceTempK);
             }
             energyInJm2[slot] = 0;
             energyGrossJm2[slot] = 0;
