@@ -460,7 +460,7 @@ public final class RunPreparer {
         Convection convection = conv.isFixed() ? Convection.fixed(conv.coefficientWm2K()) : Convection.mcAdams();
         TileSimulation.Settings settings = new TileSimulation.Settings(run.physics().timestepMinutes(),
                 convection, deepK, firstSample, run.outputs().thresholdK(),
-                hourlyIdx.stream().mapToInt(Integer::intValue).toArray());
+                hourlyIdx.stream().mapToInt(Integer::intValue).toArray(), run.physics().columnSpacing());
         TileJobSpec spec = new TileJobSpec(c.taskLandCover(), grid, c.palette(), c.lut(), c.districts(), used,
                 settings, c.heights(), c.geometry(), c.heightGrid(), c.cellPalette());
         return new PreparedRun(run, grid, spec, TileSpec.plan(grid.width(), grid.height(), c.tileSize()),

@@ -18,6 +18,7 @@ import java.util.List;
 import java.util.Map;
 import java.util.Objects;
 import java.util.TreeMap;
+import org.thermotile.model.balance.ColumnSpacing;
 import org.thermotile.model.constants.Physical;
 
 /**
@@ -405,8 +406,25 @@ public record RunFile(String source, String name, Site site, Inputs inputs, Weat
      * @param convection      how the convective coefficient h_c is found
      * @param deepGroundTempC temperature of the deep ground boundary [°C]; NaN = the mean air
      *                        temperature of the period
+     * @param columnSpacing   how the conduction nodes of every construction are spaced
+     *                        ({@code physics.column_spacing}); {@link ColumnSpacing#STANDARD} unless named
      */
-    public record Physics(int timestepMinutes, Convection convection, double deepGroundTempC) {
+    public record Physics(int timestepMinutes, Convection convection, double deepGroundTempC,
+            ColumnSpacing columnSpacing) {
+        public Physics {
+            Objects.requireNonNull(columnSpacing, "columnSpacing");
+            if (!ColumnSpacing.NAMED.contains(columnSpacing)) {
+                // The resolved run file writes the spacing by name: an unnamed one could not be read back.
+                throw new IllegalArgumentException("column spacing must be one of " + ColumnSpacing.names()
+                        + ", got " + columnSpacing);
+            }
+        }
+
+        /** Options with the standard column spacing. */
+        public Physics(int timestepMinutes, Convection convection, double deepGroundTempC) {
+            this(timestepMinutes, convection, deepGroundTempC, ColumnSpacing.STANDARD);
+        }
+
         /** Sub-step [s]. */
         public int timestepSeconds() {
             return timestepMinutes * 60;
@@ -705,6 +723,10 @@ public record RunFile(String source, String name, Site site, Inputs inputs, Weat
             ph.putNull("deep_ground_temp_c");
         } else {
             ph.put("deep_ground_temp_c", physics.deepGroundTempC());
+        }
+        // Written only when not the default, so the resolved run file of a standard run stays as it was.
+        if (!ColumnSpacing.STANDARD.equals(physics.columnSpacing())) {
+            ph.put("column_spacing", physics.columnSpacing().name());
         }
         ObjectNode out = root.putObject("outputs");
         ArrayNode maps = out.putArray("maps");

@@ -24,6 +24,7 @@ import java.util.TreeSet;
 import java.util.regex.Pattern;
 import org.thermotile.jobs.config.RunFile.Convection;
 import org.thermotile.jobs.config.RunFile.MapKind;
+import org.thermotile.model.balance.ColumnSpacing;
 
 /**
  * Reads and validates a run file (YAML). Every problem of the file is collected and reported
@@ -39,7 +40,8 @@ import org.thermotile.jobs.config.RunFile.MapKind;
  * raster centre at elevation 0 m; {@code weather.fill_gaps_max_hours} 0; {@code
  * period.spin_up_days} {@value #DEFAULT_SPIN_UP_DAYS}; {@code physics.timestep_minutes}
  * {@value #DEFAULT_TIMESTEP_MINUTES}; {@code physics.convection} {@value #DEFAULT_CONVECTION};
- * {@code physics.deep_ground_temp_c} the period's mean air temperature; {@code outputs.hourly_days}
+ * {@code physics.deep_ground_temp_c} the period's mean air temperature; {@code
+ * physics.column_spacing} {@code standard} ({@link ColumnSpacing#STANDARD}); {@code outputs.hourly_days}
  * none; {@code tiling.tile_size} {@value #DEFAULT_TILE_SIZE}.
  */
 public final class RunFileReader {
@@ -73,7 +75,8 @@ public final class RunFileReader {
     static final List<String> SYNTHETIC = List.of("t_min_c", "t_max_c", "rel_humidity_pct", "wind_ms",
             "utc_offset");
     static final List<String> PERIOD = List.of("start", "end", "spin_up_days");
-    static final List<String> PHYSICS = List.of("timestep_minutes", "convection", "deep_ground_temp_c");
+    static final List<String> PHYSICS = List.of("timestep_minutes", "convection", "deep_ground_temp_c",
+            "column_spacing");
     static final List<String> OUTPUTS = List.of("maps", "threshold_c", "hourly_days");
     static final List<String> TILING = List.of("tile_size");
     static final List<String> GRID = List.of("crs", "cell_size_m", "area");
@@ -600,7 +603,30 @@ public final class RunFileReader {
         Double deep = celsius(s, "deep_ground_temp_c", false,
                 "give °C, e.g. 15, or null for the period's mean air temperature", -60, 60);
         return new RunFile.Physics(step == null ? DEFAULT_TIMESTEP_MINUTES : step, conv,
-                deep == null ? Double.NaN : deep);
+                deep == null ? Double.NaN : deep, columnSpacing(s));
+    }
+
+    /** {@code physics.column_spacing}: a name from {@link ColumnSpacing#names()}, standard when absent or null. */
+    private static ColumnSpacing columnSpacing(Section s) {
+        JsonNode v = s.raw("column_spacing");
+        if (v == null || v.isNull()) {
+            return ColumnSpacing.STANDARD;
+        }
+        String p = s.child("column_spacing");
+        String fix = "use one of " + String.join(" | ", ColumnSpacing.names()) + " (default "
+                + ColumnSpacing.STANDARD.name() + "; coarse spaces the nodes below 25 cm wider, for fewer of them)";
+        if (!v.isTextual()) {
+            s.doc.at(p, "expected a spacing name, got " + YamlDoc.describe(v) + "; " + fix);
+            return ColumnSpacing.STANDARD;
+        }
+        String name = v.asText().strip();
+        ColumnSpacing spacing = ColumnSpacing.named(name);
+        if (spacing == null) {
+            s.doc.at(p, "'" + name + "' is not a column spacing" + Suggest.didYouMean(name, ColumnSpacing.names())
+                    + "; " + fix);
+            return ColumnSpacing.STANDARD;
+        }
+        return spacing;
     }
 
     private static RunFile.Outputs outputs(Section s, List<RunFile.Period> periods) {

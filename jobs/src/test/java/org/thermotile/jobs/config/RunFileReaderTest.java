@@ -17,6 +17,7 @@ import java.util.List;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.thermotile.jobs.config.RunFile.MapKind;
+import org.thermotile.model.balance.ColumnSpacing;
 
 class RunFileReaderTest {
     /** The demo run file, from the jobs module folder where Surefire runs. */
@@ -194,6 +195,66 @@ class RunFileReaderTest {
         assertEquals(syn.weather(), synBack.weather());
         assertEquals(syn.physics(), synBack.physics());
         assertEquals(syn.reserved(), synBack.reserved());
+    }
+
+    @Test
+    void columnSpacingIsStandardUnlessCoarseIsNamed() {
+        assertEquals(ColumnSpacing.STANDARD, parse(MINIMAL).physics().columnSpacing(), "no physics section");
+        assertEquals(ColumnSpacing.STANDARD, parse(MINIMAL + "physics: {timestep_minutes: 10}\n")
+                .physics().columnSpacing(), "physics without the key");
+        assertEquals(ColumnSpacing.STANDARD, parse(MINIMAL + "physics: {column_spacing: null}\n")
+                .physics().columnSpacing(), "null is the default, as for deep_ground_temp_c");
+        assertEquals(ColumnSpacing.STANDARD, parse(MINIMAL + "physics: {column_spacing: standard}\n")
+                .physics().columnSpacing());
+        RunFile rf = parse(MINIMAL + "physics:\n  convection: 12\n  column_spacing: coarse\n");
+        assertEquals(ColumnSpacing.COARSE, rf.physics().columnSpacing());
+        assertEquals(12.0, rf.physics().convection().coefficientWm2K(), "the other keys still read");
+        // The three-argument form older callers use keeps the standard spacing.
+        assertEquals(ColumnSpacing.STANDARD, new RunFile.Physics(10,
+                new RunFile.Convection("mcadams", Double.NaN), Double.NaN).columnSpacing());
+    }
+
+    @Test
+    void coarseSpacingRoundTripsAndAStandardRunWritesNoKey() {
+        RunFile coarse = parse(MINIMAL + "physics: {column_spacing: coarse}\n");
+        JsonNode ph = coarse.toTree().get("physics");
+        assertEquals("coarse", ph.get("column_spacing").asText());
+        RunFile back = parse(coarse.toYaml());
+        assertEquals(coarse.physics(), back.physics());
+        assertEquals(coarse.toJson(), back.toJson());
+
+        // Standard, written or not: the resolved file (and so every existing run's manifest and
+        // partition keys) is what it was before the key existed.
+        RunFile plain = parse(MINIMAL);
+        RunFile named = parse(MINIMAL + "physics: {column_spacing: standard}\n");
+        assertFalse(plain.toTree().get("physics").has("column_spacing"), plain.toJson());
+        assertEquals(List.of("timestep_minutes", "convection", "deep_ground_temp_c"),
+                iterate(plain.toTree().get("physics")));
+        assertEquals(plain.toJson(), named.toJson());
+        assertFalse(RunFileReader.read(EXAMPLE).toTree().get("physics").has("column_spacing"));
+    }
+
+    @Test
+    void unknownOrMistypedColumnSpacingIsAnErrorWithItsPlace() {
+        for (String typo : List.of("coarse_", "corse", "Coarse")) {
+            String p = only(problems(MINIMAL + "physics:\n  column_spacing: " + typo + "\n"));
+            assertContains(p, "run.yaml line 13, column 3", "physics.column_spacing",
+                    "'" + typo + "' is not a column spacing", "did you mean 'coarse'?", "standard | coarse");
+        }
+        String far = only(problems(MINIMAL + "physics: {column_spacing: medium}\n"));
+        assertContains(far, "physics.column_spacing", "'medium' is not a column spacing", "use one of standard | coarse");
+        assertFalse(far.contains("did you mean"), far);
+        String number = only(problems(MINIMAL + "physics: {column_spacing: 3}\n"));
+        assertContains(number, "physics.column_spacing", "expected a spacing name, got the number 3",
+                "standard | coarse");
+        String list = only(problems(MINIMAL + "physics: {column_spacing: [coarse]}\n"));
+        assertContains(list, "physics.column_spacing", "got a list");
+        String key = only(problems(MINIMAL + "physics: {colum_spacing: coarse}\n"));
+        assertContains(key, "unknown key 'colum_spacing'", "did you mean 'column_spacing'?");
+        // Reported with the file's other problems, not instead of them.
+        List<String> both = problems(MINIMAL + "physics: {timestep_minutes: 7, column_spacing: corse}\n");
+        assertEquals(2, both.size(), both::toString);
+        assertContains(String.join("\n", both), "physics.timestep_minutes", "physics.column_spacing");
     }
 
     private static List<String> iterate(JsonNode n) {

@@ -13,7 +13,8 @@ import java.util.List;
  * thinner than 25 cm, none). Both pass the Carslaw &amp; Jaeger periodic-conduction check of
  * {@code BalanceKernelTest} with the same tolerance; a single growth of 1.5 to 2 or a first
  * segment of 1.5 to 3 cm does not (it over-damps the wave by 2.2–3.9 % within one damping depth).
- * The accuracy each costs at the surface is measured there and stated in the README.
+ * What the coarse spacing costs at the surface over a summer month is measured in
+ * {@code ColumnSpacingTest} and stated in the README.
  *
  * @param name          the name a run file gives, or null for an unnamed spacing
  * @param firstSegmentM thickness of the first segment below the surface [m], &gt; 0
