@@ -17,6 +17,7 @@ import org.openjdk.jmh.annotations.State;
 import org.openjdk.jmh.annotations.Warmup;
 import org.thermotile.model.balance.BalanceKernel;
 import org.thermotile.model.balance.CellMajorKernel;
+import org.thermotile.model.balance.ColumnSpacing;
 import org.thermotile.model.balance.Convection;
 import org.thermotile.model.balance.SubstepForcing;
 import org.thermotile.model.balance.SurfaceBlock;
@@ -53,6 +54,10 @@ public class KernelBenchmark {
     @Param({"node", "cell"})
     public String layout;
 
+    /** Conduction-node spacing by its run-file name (standard | coarse); {@code -p spacing=coarse} for the other. */
+    @Param({"standard"})
+    public String spacing = "standard";
+
     SurfaceBlock block;
     CellMajorKernel cellMajor;
     SubstepForcing sf;
@@ -65,7 +70,11 @@ public class KernelBenchmark {
                 LocalDate.of(2026, 7, 1), 30, 7200, 20, 33, 0.45, 2.0)), site);
         sf = SubstepForcing.of(f, 10, Convection.mcAdams());
         Material m = MaterialLibrary.get(material);
-        SurfaceBlock.Builder b = new SurfaceBlock.Builder(CELLS, false);
+        ColumnSpacing columnSpacing = ColumnSpacing.named(spacing);
+        if (columnSpacing == null) {
+            throw new IllegalArgumentException("spacing '" + spacing + "': use one of " + ColumnSpacing.names());
+        }
+        SurfaceBlock.Builder b = new SurfaceBlock.Builder(CELLS, false, columnSpacing);
         for (int c = 0; c < CELLS; c++) {
             b.cell(c, m, 299.15);
         }

@@ -10,7 +10,7 @@ import java.util.Arrays;
  * comparison of two builds made on a busy machine is not skewed by time slices lost to other
  * processes (cache sharing still is). Prints each round and the median.
  *
- * <pre>java -cp … org.thermotile.bench.KernelCpuRate [material] [chunk] [hours per round] [rounds]</pre>
+ * <pre>java -cp … org.thermotile.bench.KernelCpuRate [material] [chunk] [hours per round] [rounds] [node|cell] [standard|coarse]</pre>
  */
 public final class KernelCpuRate {
     private KernelCpuRate() {}
@@ -22,6 +22,7 @@ public final class KernelCpuRate {
         int hours = args.length > 2 ? Integer.parseInt(args[2]) : 24;
         int rounds = args.length > 3 ? Integer.parseInt(args[3]) : 7;
         b.layout = args.length > 4 ? args[4] : "node";
+        b.spacing = args.length > 5 ? args[5] : "standard";
         b.setUp();
         ThreadMXBean mx = ManagementFactory.getThreadMXBean();
         double sink = 0;
@@ -40,7 +41,7 @@ public final class KernelCpuRate {
         }
         double[] sorted = rate.clone();
         Arrays.sort(sorted);
-        System.out.printf("%s chunk %d %s: median %.3g cell-hours per CPU-second (min %.3g, max %.3g; check %.1f)%n",
-                b.material, b.chunk, b.layout, sorted[rounds / 2], sorted[0], sorted[rounds - 1], sink / (rounds * hours + 2 * hours));
+        System.out.printf("%s chunk %d %s %s: median %.3g cell-hours per CPU-second (min %.3g, max %.3g; check %.1f)%n",
+                b.material, b.chunk, b.layout, b.spacing, sorted[rounds / 2], sorted[0], sorted[rounds - 1], sink / (rounds * hours + 2 * hours));
     }
 }
