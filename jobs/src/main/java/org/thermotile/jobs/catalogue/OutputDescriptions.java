@@ -4,6 +4,7 @@ import java.util.List;
 import java.util.Locale;
 import org.thermotile.jobs.config.RunFile;
 import org.thermotile.jobs.io.raster.GeoTiffWriter;
+import org.thermotile.jobs.storage.RunLayout;
 
 /**
  * What each output of a run is, in one place: every map's band description and unit (a chosen
@@ -38,7 +39,7 @@ public final class OutputDescriptions {
 
     /** The unit of a difference of statistic {@code key}: a difference of °C is a kelvin. */
     public static String differenceUnit(String key) {
-        String base = key.startsWith("delta_") ? key.substring("delta_".length()) : key;
+        String base = RunLayout.deltaOf(key) != null ? RunLayout.deltaOf(key) : key;
         String u = statistic(base).unit();
         return u.equals("degC") ? "K" : u;
     }
@@ -192,7 +193,7 @@ public final class OutputDescriptions {
         if (rel.startsWith("observed/")) {
             return "Difference between the run and a thermal image.";
         }
-        if (stem.startsWith("delta_")) {
+        if (RunLayout.deltaOf(stem) != null) {
             return "Scenario minus baseline, cell by cell.";
         }
         if (stem.startsWith("hourly_")) {

@@ -176,7 +176,7 @@ public final class Comparison {
                 try (GeoTiffReader b = GeoTiffReader.openSingleBand(base);
                         GeoTiffReader t = GeoTiffReader.openSingleBand(scen)) {
                     RasterGrid g = b.grid();
-                    GeoTiffWriter.writeFloatBlocks(scen.resolveSibling("delta_" + m + ".tif"), g,
+                    GeoTiffWriter.writeFloatBlocks(scen.resolveSibling(RunLayout.deltaName(m) + ".tif"), g,
                             List.of(org.thermotile.jobs.catalogue.OutputDescriptions.delta(m)), CityJob.MAP_NODATA,
                             (band, c0, r0, w, h, out) -> {
                                 float[] x = b.readFloatWindow(c0, r0, w, h);

@@ -72,7 +72,7 @@ final class Partitions {
         if (Files.isDirectory(maps)) {
             try (Stream<Path> s = Files.list(maps)) {
                 s.filter(f -> f.getFileName().toString().endsWith(".tif")
-                                && !f.getFileName().toString().startsWith("delta_"))
+                                && !f.getFileName().toString().startsWith(RunLayout.DELTA_PREFIX))
                         .forEach(f -> out.add(runDir.relativize(f).toString()));
             }
         }

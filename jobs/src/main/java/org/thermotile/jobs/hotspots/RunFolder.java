@@ -16,6 +16,7 @@ import org.thermotile.jobs.config.RunFile;
 import org.thermotile.jobs.config.Suggest;
 import org.thermotile.jobs.io.raster.GeoTiffReader;
 import org.thermotile.jobs.io.raster.RasterGrid;
+import org.thermotile.jobs.storage.RunLayout;
 
 /**
  * A finished run folder as the hotspot analysis reads it: manifest.json, maps/*.tif and, when
@@ -31,7 +32,7 @@ public final class RunFolder {
     public static final List<String> STATISTICS = RunFile.MapKind.keys(RunFile.MapKind::hotspots);
 
     /** Prefix of a scenario's difference statistics (scenario minus baseline). */
-    public static final String DELTA = "delta_";
+    public static final String DELTA = RunLayout.DELTA_PREFIX;
 
     /** The unit of a statistic as users read it ("°C", "K h"). */
     static String unit(String statistic) {

@@ -10,6 +10,7 @@ import java.util.Locale;
 import java.util.Optional;
 import java.util.stream.Stream;
 import org.thermotile.jobs.report.RunReport.MapEntry;
+import org.thermotile.jobs.storage.RunLayout;
 
 /** The scenarios: the ranking table, and per programme its peak map beside the baseline's and its change maps. */
 final class ScenarioSection extends ReportSection {
@@ -90,8 +91,7 @@ final class ScenarioSection extends ReportSection {
                     continue;
                 }
                 String stem = n.substring(0, n.length() - 4);
-                String stat = stem.startsWith("delta_") ? stem.substring(6) : stem.endsWith("_delta")
-                        ? stem.substring(0, stem.length() - 6) : null;
+                String stat = RunLayout.deltaOf(stem);
                 if (stat == null) {
                     continue;
                 }

@@ -22,6 +22,19 @@ import org.thermotile.jobs.config.Scenario;
  */
 public record RunLayout(Path root, String period) {
 
+    /** File-name prefix of a comparison's difference maps: {@code delta_KEY.tif} is scenario minus baseline of map KEY. */
+    public static final String DELTA_PREFIX = "delta_";
+
+    /** The name (without {@code .tif}) of the difference map of map {@code key}. */
+    public static String deltaName(String key) {
+        return DELTA_PREFIX + key;
+    }
+
+    /** The map key a difference map's name (without {@code .tif}) stands for, or null when it is not one. */
+    public static String deltaOf(String stem) {
+        return stem.startsWith(DELTA_PREFIX) ? stem.substring(DELTA_PREFIX.length()) : null;
+    }
+
     /** The layout of a run of one period in {@code root}. */
     public static RunLayout single(Path root) {
         return new RunLayout(root, null);
