@@ -1,0 +1,83 @@
+package org.thermotile.jobs.storage;
+
+import java.nio.file.Path;
+import java.util.Collection;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+import org.thermotile.jobs.errors.UserInputException;
+
+/**
+ * The naming rule of every written table column (Parquet, CSV, GeoJSON properties), and the
+ * columns an older run folder still names the old way.
+ *
+ * <p>Rule: a column holding a quantity with a physical unit ends in that unit ({@code _c} °C,
+ * {@code _k} K, {@code _m}, {@code _m2}, {@code _km2}, {@code _h} hours, {@code _k_h} K·h,
+ * {@code _k_m2} K·m², {@code _k_h_m2} K·h·m², {@code _c_km2} °C·km², {@code _deg} degrees of
+ * longitude or latitude, {@code _w_m2} W/m²; products in the order written); a column that
+ * divides by a unit names it after {@code _per_} ({@code cost_per_k_h_m2}). Dimensionless,
+ * categorical and count columns carry none: ids, names, codes, labels, fractions and shares,
+ * albedo, emissivity, sky view factor, z, q, band, counts ({@code cells}), timestamps
+ * ({@code time}, ISO 8601 text). Two documented exceptions: {@code cost} columns are in the run
+ * file's currency, which the run file does not name; {@code mean_value} of the hot-spot tables
+ * is in the analysed map's unit, which the {@code unit} column beside it gives.
+ */
+public final class TableColumns {
+    private TableColumns() {}
+
+    /**
+     * Columns renamed when every column got its unit suffix: new name → the name older run folders
+     * have. The GeoTIFF maps and the run file's map keys did not change.
+     */
+    public static final Map<String, String> RENAMED;
+
+    static {
+        Map<String, String> m = new LinkedHashMap<>();
+        m.put("x_m", "x");
+        m.put("y_m", "y");
+        m.put("peak_hour_h", "peak_hour");
+        m.put("hours_above_h", "hours_above");
+        m.put("degree_hours_k_h", "degree_hours");
+        m.put("local_hour_h", "local_hour");
+        m.put("cost_per_k_h_m2", "cost_per_degree_hour_m2");
+        m.put("area_x_excess_k_m2", "area_x_excess_m2k");
+        m.put("centroid_x_m", "centroid_x");
+        m.put("centroid_y_m", "centroid_y");
+        m.put("centroid_lon_deg", "centroid_lon");
+        m.put("centroid_lat_deg", "centroid_lat");
+        RENAMED = java.util.Collections.unmodifiableMap(m);
+    }
+
+    /**
+     * What to tell the user when {@code column} is missing from a table that has {@code present}:
+     * when the table still has the column's old name, the folder was written before the rename,
+     * and the fix is to run it again; otherwise null (a plain missing column).
+     */
+    public static String olderLayout(Path table, String column, Collection<String> present) {
+        String old = RENAMED.get(column);
+        if (old == null || !present.contains(old)) {
+            return null;
+        }
+        return table + ": column '" + old + "' is named '" + column + "' since column names carry their unit "
+                + "(this folder was written by an older thermotile, whose tables the current one does not read). "
+                + "Fix: run the run file again into a new folder (or with --replace)";
+    }
+
+    /**
+     * Checks that a table read back from a run folder has the columns a reader needs.
+     *
+     * @throws UserInputException naming the table and the column, with the fix "run again" when
+     *         the folder is of the older naming, else listing the columns that exist
+     */
+    public static void require(Path table, Collection<String> present, List<String> needed) {
+        for (String c : needed) {
+            if (present.contains(c)) {
+                continue;
+            }
+            String older = olderLayout(table, c, present);
+            throw new UserInputException(older != null ? older
+                    : table + ": column '" + c + "' is missing (columns: " + String.join(", ", present)
+                            + "). Fix: give the folder of a finished run, or run the run file again");
+        }
+    }
+}
