@@ -14,7 +14,8 @@ import org.thermotile.jobs.errors.UserInputException;
  * <p>Rule: a column holding a quantity with a physical unit ends in that unit ({@code _c} °C,
  * {@code _k} K, {@code _m}, {@code _m2}, {@code _km2}, {@code _h} hours, {@code _k_h} K·h,
  * {@code _k_m2} K·m², {@code _k_h_m2} K·h·m², {@code _c_km2} °C·km², {@code _deg} degrees of
- * longitude or latitude, {@code _w_m2} W/m²; products in the order written); a column that
+ * longitude or latitude; the weather and point files' {@code _wm2} W/m², {@code _ms} m/s,
+ * {@code _pct} %; products in the order written); a column that
  * divides by a unit names it after {@code _per_} ({@code cost_per_k_h_m2}). Dimensionless,
  * categorical and count columns carry none: ids, names, codes, labels, fractions and shares,
  * albedo, emissivity, sky view factor, z, q, band, counts ({@code cells}), timestamps
@@ -46,6 +47,36 @@ public final class TableColumns {
         m.put("centroid_lon_deg", "centroid_lon");
         m.put("centroid_lat_deg", "centroid_lat");
         RENAMED = java.util.Collections.unmodifiableMap(m);
+    }
+
+    /** The unit suffixes of the rule ("_k_h" K·h); a column ends in one of them, or is in {@link #UNITLESS}. */
+    public static final List<String> UNIT_SUFFIXES = List.of("_c", "_k", "_m", "_m2", "_km2", "_h", "_k_h", "_k_m2",
+            "_k_h_m2", "_c_km2", "_deg", "_wm2", "_ms", "_pct", "_per_k_h_m2", "_per_c_km2");
+
+    /**
+     * Written columns without a unit: ids, names, codes, labels, counts, fractions, statistics
+     * without a unit, ISO 8601 timestamps ({@code time}), and the documented exceptions whose unit
+     * is given elsewhere ({@code cost}: the run file's currency; {@code mean_value}: the
+     * {@code unit} column; calibration {@code before}/{@code after}/{@code standard_error}: the
+     * unit of the row's {@code quantity}).
+     */
+    public static final java.util.Set<String> UNITLESS = java.util.Set.of(
+            // keys and names
+            "scenario", "period", "col", "row", "land_cover", "material", "district", "district_id", "district_name",
+            "id", "zone_id", "feature", "image", "group", "name", "pixel", "kind", "statistic", "unit", "quantity",
+            "label", "note", "time",
+            // codes, counts, ranks, flags
+            "top_band", "band", "cells", "holes", "count", "hot_polygons", "cold_polygons", "rank", "included",
+            "identifiable",
+            // dimensionless quantities
+            "sky_view_factor", "covered_fraction", "hot_share", "cold_share", "z", "q", "max_q", "mean_z",
+            "pearson_r",
+            // unit given elsewhere (see above)
+            "cost", "mean_value", "before", "after", "standard_error");
+
+    /** Whether a column name follows the rule: it ends in a unit suffix or is a known unitless column. */
+    public static boolean followsRule(String column) {
+        return UNITLESS.contains(column) || UNIT_SUFFIXES.stream().anyMatch(column::endsWith);
     }
 
     /**

@@ -167,9 +167,9 @@ class ScenarioTest {
         assertEquals(625.0 * n, all.<Double>getAs("cost"), 1e-6);
         assertEquals(25.0 * n, all.<Double>getAs("treated_area_m2"), 1e-9);
         view();
-        double dh = spark.sql("select sum(b.degree_hours - s.degree_hours) * 25 from c b join c s using (col, row)"
+        double dh = spark.sql("select sum(b.degree_hours_k_h - s.degree_hours_k_h) * 25 from c b join c s using (col, row)"
                 + " where b.scenario = 'baseline' and s.scenario = 'cool-dark-roofs'").first().getDouble(0);
-        assertEquals(625.0 * n / dh, all.<Double>getAs("cost_per_degree_hour_m2"), 1e-9 * (625.0 * n / dh));
+        assertEquals(625.0 * n / dh, all.<Double>getAs("cost_per_k_h_m2"), 1e-9 * (625.0 * n / dh));
         // West-only street treatment: cost only in West.
         Row west = spark.read().parquet(out.resolve("comparison/districts.parquet").toString())
                 .where("scenario = 'west-only' and district = 'East'").first();

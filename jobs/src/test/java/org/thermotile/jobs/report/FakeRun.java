@@ -57,14 +57,14 @@ final class FakeRun {
     static final StructType MATERIAL_HOURS = new StructType()
             .add("material", DataTypes.StringType, false)
             .add("time", DataTypes.StringType, false)
-            .add("local_hour", DataTypes.IntegerType, false)
+            .add("local_hour_h", DataTypes.IntegerType, false)
             .add("mean_c", DataTypes.DoubleType, false)
             .add("cells", DataTypes.LongType, false);
 
     static final StructType DISTRICT_HOURS = new StructType()
             .add("district", DataTypes.StringType, false)
             .add("time", DataTypes.StringType, false)
-            .add("local_hour", DataTypes.IntegerType, false)
+            .add("local_hour_h", DataTypes.IntegerType, false)
             .add("mean_c", DataTypes.DoubleType, false)
             .add("p10_c", DataTypes.DoubleType, false)
             .add("p90_c", DataTypes.DoubleType, false)
