@@ -99,8 +99,9 @@ public final class Comparison {
         double cellArea = sc.path("cell_area_m2").asDouble();
         double threshold = sc.path("threshold_c").asDouble();
         try {
+            Dataset<Row> cells = cells(spark, runDir);   // checked before anything is written
             deltaMaps(runDir, sc);
-            List<Row> rows = districtRows(spark, runDir, sc, cellArea, threshold);
+            List<Row> rows = districtRows(spark, cells, sc, cellArea, threshold);
             Path out = runDir.resolve("comparison");
             Files.createDirectories(out);
             writeTable(spark, rows, DISTRICTS, out.resolve("districts.parquet"), out.resolve("districts.csv"));
@@ -209,11 +210,23 @@ public final class Comparison {
         }
     }
 
-    static List<Row> districtRows(SparkSession spark, Path runDir, JsonNode sc, double cellArea, double threshold) {
+    /**
+     * The run's cells table, with the columns the comparison reads.
+     *
+     * @throws UserInputException when a column is missing, naming the table (and, for a folder
+     *         written before the columns carried units, the old and new name and the fix)
+     */
+    static Dataset<Row> cells(SparkSession spark, Path runDir) {
         Path cellsDir = RunLayout.of(runDir).table("cells");
         Dataset<Row> cells = spark.read().parquet(OutputStore.sparkUri(cellsDir));
+        TableColumns.require(cellsDir, List.of(cells.columns()), List.of("scenario", "col", "row", "district",
+                MapKind.PEAK.column(), MapKind.DEGREE_HOURS.column()));
+        return cells;
+    }
+
+    static List<Row> districtRows(SparkSession spark, Dataset<Row> cells, JsonNode sc, double cellArea,
+            double threshold) {
         String peak = MapKind.PEAK.column(), dhours = MapKind.DEGREE_HOURS.column();
-        TableColumns.require(cellsDir, List.of(cells.columns()), List.of("scenario", "col", "row", "district", peak, dhours));
         cells.createOrReplaceTempView("tt_cells");
         String q = "select s.scenario, coalesce(b.district, '(outside districts)') district, count(*) n,"
                 + " avg(b.%2$s - s.%2$s) red_mean, percentile(b.%2$s - s.%2$s, 0.95) red_p95,"
