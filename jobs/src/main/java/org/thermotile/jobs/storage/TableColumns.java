@@ -27,6 +27,13 @@ public final class TableColumns {
     private TableColumns() {}
 
     /**
+     * The table layout: 2 since every column carries its unit (1, unrecorded: before). Part of
+     * every partition key, so {@code run --resume} on a folder of the older layout recomputes its
+     * partitions instead of mixing old and new column names in one dataset.
+     */
+    public static final int LAYOUT = 2;
+
+    /**
      * Columns renamed when every column got its unit suffix: new name → the name older run folders
      * have. The GeoTIFF maps and the run file's map keys did not change.
      */
