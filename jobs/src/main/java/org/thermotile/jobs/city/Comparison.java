@@ -22,6 +22,8 @@ import org.thermotile.jobs.errors.UserInputException;
 import org.thermotile.jobs.storage.CanonicalParquet;
 import org.thermotile.jobs.storage.OutputStore;
 import org.thermotile.jobs.storage.RunLayout;
+import org.thermotile.jobs.storage.TableColumns;
+import org.thermotile.jobs.config.RunFile.MapKind;
 import org.thermotile.jobs.io.raster.GeoTiffReader;
 import org.thermotile.jobs.io.raster.GeoTiffWriter;
 import org.thermotile.jobs.io.raster.RasterGrid;
@@ -61,11 +63,24 @@ public final class Comparison {
             .add("peak_reduction_c_km2", DataTypes.DoubleType, false)
             .add("degree_hours_avoided_k_h_m2", DataTypes.DoubleType, false)
             .add("area_above_threshold_change_m2", DataTypes.DoubleType, false)
-            .add("cost", DataTypes.DoubleType, true)
-            .add("cost_per_degree_hour_m2", DataTypes.DoubleType, true)
+            .add("cost", DataTypes.DoubleType, true)                 // the run file's currency
+            .add("cost_per_k_h_m2", DataTypes.DoubleType, true)      // cost per K·h·m² avoided
             .add("cost_per_c_km2", DataTypes.DoubleType, true);
 
     static final StructType RANKING = DISTRICTS.add("rank", DataTypes.IntegerType, false);
+
+    // Positions in DISTRICTS/RANKING rows, looked up by name so a new or renamed column cannot shift them.
+    private static final int SCENARIO = RANKING.fieldIndex("scenario");
+    private static final int DISTRICT = RANKING.fieldIndex("district");
+    private static final int TREATED = RANKING.fieldIndex("treated_area_m2");
+    private static final int RED_MEAN = RANKING.fieldIndex("peak_reduction_mean_c");
+    private static final int RED_P95 = RANKING.fieldIndex("peak_reduction_p95_c");
+    private static final int DH_AVOIDED = RANKING.fieldIndex("degree_hours_avoided_k_h_m2");
+    private static final int ABOVE = RANKING.fieldIndex("area_above_threshold_change_m2");
+    private static final int COST = RANKING.fieldIndex("cost");
+    private static final int COST_PER_DH = RANKING.fieldIndex("cost_per_k_h_m2");
+    private static final int COST_PER_C_KM2 = RANKING.fieldIndex("cost_per_c_km2");
+    private static final int RANK = RANKING.fieldIndex("rank");
 
     /** Writes the comparison of the run in {@code runDir} (its manifest must list scenarios). */
     public static void write(SparkSession spark, Path runDir) {
@@ -84,8 +99,9 @@ public final class Comparison {
         double cellArea = sc.path("cell_area_m2").asDouble();
         double threshold = sc.path("threshold_c").asDouble();
         try {
+            Dataset<Row> cells = cells(spark, runDir);   // checked before anything is written
             deltaMaps(runDir, sc);
-            List<Row> rows = districtRows(spark, runDir, sc, cellArea, threshold);
+            List<Row> rows = districtRows(spark, cells, sc, cellArea, threshold);
             Path out = runDir.resolve("comparison");
             Files.createDirectories(out);
             writeTable(spark, rows, DISTRICTS, out.resolve("districts.parquet"), out.resolve("districts.csv"));
@@ -120,15 +136,18 @@ public final class Comparison {
         Map<String, Map<String, Row>> whole = new java.util.LinkedHashMap<>(); // scenario → period → (all) row
         for (String p : periods) {
             Path r = runDir.resolve("periods").resolve(p).resolve("comparison/ranking.parquet");
-            for (Row row : spark.read().parquet(OutputStore.sparkUri(r)).collectAsList()) {
+            Dataset<Row> ranking = spark.read().parquet(OutputStore.sparkUri(r));
+            TableColumns.require(r, List.of(ranking.columns()), List.of(RANKING.fieldNames()));
+            // Rows in RANKING's order whatever the file's, so the positions above hold.
+            for (Row row : ranking.selectExpr(RANKING.fieldNames()).collectAsList()) {
                 Object[] v = new Object[row.size() + 1];
                 v[0] = p;
                 for (int i = 0; i < row.size(); i++) {
                     v[i + 1] = row.get(i);
                 }
                 all.add(RowFactory.create(v));
-                if (ALL.equals(row.getString(1))) {
-                    whole.computeIfAbsent(row.getString(0), k -> new java.util.LinkedHashMap<>()).put(p, row);
+                if (ALL.equals(row.getString(DISTRICT))) {
+                    whole.computeIfAbsent(row.getString(SCENARIO), k -> new java.util.LinkedHashMap<>()).put(p, row);
                 }
             }
         }
@@ -152,7 +171,7 @@ public final class Comparison {
                 for (String p : periods) {
                     Row r = e.getValue().get(p);
                     sb.append(r == null ? " – | – | – |" : String.format(Locale.ROOT, " %d | %.2f | %.4g |",
-                            r.getInt(12), r.getDouble(4), r.getDouble(7)));
+                            r.getInt(RANK), r.getDouble(RED_MEAN), r.getDouble(DH_AVOIDED)));
                 }
                 sb.append('\n');
             }
@@ -191,22 +210,37 @@ public final class Comparison {
         }
     }
 
-    static List<Row> districtRows(SparkSession spark, Path runDir, JsonNode sc, double cellArea, double threshold) {
-        Dataset<Row> cells = spark.read().parquet(OutputStore.sparkUri(RunLayout.of(runDir).table("cells")));
+    /**
+     * The run's cells table, with the columns the comparison reads.
+     *
+     * @throws UserInputException when a column is missing, naming the table (and, for a folder
+     *         written before the columns carried units, the old and new name and the fix)
+     */
+    static Dataset<Row> cells(SparkSession spark, Path runDir) {
+        Path cellsDir = RunLayout.of(runDir).table("cells");
+        Dataset<Row> cells = spark.read().parquet(OutputStore.sparkUri(cellsDir));
+        TableColumns.require(cellsDir, List.of(cells.columns()), List.of("scenario", "col", "row", "district",
+                MapKind.PEAK.column(), MapKind.DEGREE_HOURS.column()));
+        return cells;
+    }
+
+    static List<Row> districtRows(SparkSession spark, Dataset<Row> cells, JsonNode sc, double cellArea,
+            double threshold) {
+        String peak = MapKind.PEAK.column(), dhours = MapKind.DEGREE_HOURS.column();
         cells.createOrReplaceTempView("tt_cells");
         String q = "select s.scenario, coalesce(b.district, '(outside districts)') district, count(*) n,"
-                + " avg(b.peak_c - s.peak_c) red_mean, percentile(b.peak_c - s.peak_c, 0.95) red_p95,"
-                + " sum(b.peak_c - s.peak_c) red_sum, sum(b.degree_hours - s.degree_hours) dh_avoided,"
-                + " sum(case when s.peak_c > %1$s then 1 else 0 end) - sum(case when b.peak_c > %1$s then 1 else 0 end) above"
+                + " avg(b.%2$s - s.%2$s) red_mean, percentile(b.%2$s - s.%2$s, 0.95) red_p95,"
+                + " sum(b.%2$s - s.%2$s) red_sum, sum(b.%3$s - s.%3$s) dh_avoided,"
+                + " sum(case when s.%2$s > %1$s then 1 else 0 end) - sum(case when b.%2$s > %1$s then 1 else 0 end) above"
                 + " from tt_cells b join tt_cells s on b.col = s.col and b.row = s.row"
                 + " where b.scenario = 'baseline' and s.scenario <> 'baseline'"
                 + " group by grouping sets ((s.scenario, coalesce(b.district, '(outside districts)')), (s.scenario))"
                 + " order by 1, 2";
-        List<Row> raw = spark.sql(String.format(Locale.ROOT, q, threshold)).collectAsList();
+        List<Row> raw = spark.sql(String.format(Locale.ROOT, q, threshold, peak, dhours)).collectAsList();
         List<Row> rows = new ArrayList<>();
         for (Row r : raw) {
-            String scen = r.getString(0);
-            String district = r.isNullAt(1) ? ALL : r.getString(1);
+            String scen = r.getAs("scenario");
+            String district = r.isNullAt(r.fieldIndex("district")) ? ALL : r.getAs("district");
             JsonNode entry = find(sc, scen);
             double treated = 0;
             double cost = 0;
@@ -218,10 +252,10 @@ public final class Comparison {
                 }
             }
             boolean hasCost = entry.path("has_cost").asBoolean();
-            double dh = r.getDouble(6) * cellArea;
-            double cKm2 = r.getDouble(5) * cellArea / 1e6;
-            rows.add(RowFactory.create(scen, district, r.getLong(2) * cellArea, treated, r.getDouble(3), r.getDouble(4),
-                    cKm2, dh, r.getLong(7) * cellArea, hasCost ? cost : null,
+            double dh = r.<Double>getAs("dh_avoided") * cellArea;
+            double cKm2 = r.<Double>getAs("red_sum") * cellArea / 1e6;
+            rows.add(RowFactory.create(scen, district, r.<Long>getAs("n") * cellArea, treated, r.<Double>getAs("red_mean"),
+                    r.<Double>getAs("red_p95"), cKm2, dh, r.<Long>getAs("above") * cellArea, hasCost ? cost : null,
                     hasCost && dh > 0 ? cost / dh : null, hasCost && cKm2 > 0 ? cost / cKm2 : null));
         }
         return rows;
@@ -244,20 +278,20 @@ public final class Comparison {
         }
         final boolean byCost = allCost;
         List<Row> out = new ArrayList<>();
-        List<String> districts = rows.stream().map(r -> r.getString(1)).distinct().sorted((a, b) ->
+        List<String> districts = rows.stream().map(r -> r.getString(DISTRICT)).distinct().sorted((a, b) ->
                 a.equals(ALL) ? -1 : b.equals(ALL) ? 1 : a.compareTo(b)).toList();
         for (String d : districts) {
-            List<Row> in = new ArrayList<>(rows.stream().filter(r -> r.getString(1).equals(d)).toList());
+            List<Row> in = new ArrayList<>(rows.stream().filter(r -> r.getString(DISTRICT).equals(d)).toList());
             in.sort((a, b) -> {
                 int c;
                 if (byCost) {
-                    double ca = a.isNullAt(10) ? Double.POSITIVE_INFINITY : a.getDouble(10);
-                    double cb = b.isNullAt(10) ? Double.POSITIVE_INFINITY : b.getDouble(10);
+                    double ca = a.isNullAt(COST_PER_DH) ? Double.POSITIVE_INFINITY : a.getDouble(COST_PER_DH);
+                    double cb = b.isNullAt(COST_PER_DH) ? Double.POSITIVE_INFINITY : b.getDouble(COST_PER_DH);
                     c = Double.compare(ca, cb);
                 } else {
-                    c = Double.compare(b.getDouble(7), a.getDouble(7));
+                    c = Double.compare(b.getDouble(DH_AVOIDED), a.getDouble(DH_AVOIDED));
                 }
-                return c != 0 ? c : a.getString(0).compareTo(b.getString(0));
+                return c != 0 ? c : a.getString(SCENARIO).compareTo(b.getString(SCENARIO));
             });
             for (int i = 0; i < in.size(); i++) {
                 Row r = in.get(i);
@@ -307,8 +341,9 @@ public final class Comparison {
         sb.append("|---:|---|---|---:|---:|---:|---:|---:|---:|---:|---:|\n");
         for (Row r : ranked) {
             sb.append(String.format(Locale.ROOT, "| %d | %s | %s | %.0f | %.2f | %.2f | %.4g | %.0f | %s | %s | %s |%n",
-                    r.getInt(12), r.getString(0), r.getString(1), r.getDouble(3), r.getDouble(4), r.getDouble(5),
-                    r.getDouble(7), r.getDouble(8), fmt(r, 9), fmt(r, 10), fmt(r, 11)));
+                    r.getInt(RANK), r.getString(SCENARIO), r.getString(DISTRICT), r.getDouble(TREATED),
+                    r.getDouble(RED_MEAN), r.getDouble(RED_P95), r.getDouble(DH_AVOIDED), r.getDouble(ABOVE),
+                    fmt(r, COST), fmt(r, COST_PER_DH), fmt(r, COST_PER_C_KM2)));
         }
         sb.append("\nSurface temperature is not air temperature nor a heat-health index; these figures compare "
                 + "options and do not replace local building codes or licensed professionals.\n");

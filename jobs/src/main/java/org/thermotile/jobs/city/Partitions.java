@@ -25,8 +25,8 @@ import org.thermotile.jobs.storage.RunLayout;
  * resumed run can keep.
  *
  * <p>A variant's key is the SHA-256 of everything its results depend on: the resolved run file
- * without the scenario sections and input locations, every input's hash, thermotile's version, and the variant's own
- * definition. A partition is complete when the manifest records the same key and every file it
+ * without the scenario sections and input locations, every input's hash, thermotile's version, the table
+ * layout ({@link org.thermotile.jobs.storage.TableColumns#LAYOUT}) and the variant's own definition. A partition is complete when the manifest records the same key and every file it
  * lists still has the recorded SHA-256.
  */
 final class Partitions {
@@ -42,7 +42,8 @@ final class Partitions {
         if (tree.get("weather") instanceof ObjectNode w) {
             w.remove("file");
         }
-        StringBuilder common = new StringBuilder(tree.toString()).append('|').append(Manifest.version());
+        StringBuilder common = new StringBuilder(tree.toString()).append('|').append(Manifest.version())
+                .append("|tables=").append(org.thermotile.jobs.storage.TableColumns.LAYOUT);
         if (p.run().inputs().classesIsBuiltIn()) {
             common.append("|classes=").append(p.run().inputs().classes());
         }

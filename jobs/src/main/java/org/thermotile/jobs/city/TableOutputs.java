@@ -29,12 +29,13 @@ import org.thermotile.model.tile.TileSimulation;
 public final class TableOutputs {
     private TableOutputs() {}
 
+    /** Column names follow {@link org.thermotile.jobs.storage.TableColumns}' unit-suffix rule. */
     static final StructType CELLS = new StructType()
             .add("scenario", DataTypes.StringType, false)
             .add("col", DataTypes.IntegerType, false)
             .add("row", DataTypes.IntegerType, false)
-            .add("x", DataTypes.DoubleType, false)
-            .add("y", DataTypes.DoubleType, false)
+            .add("x_m", DataTypes.DoubleType, false)     // cell centre, working-grid CRS (projected, metres)
+            .add("y_m", DataTypes.DoubleType, false)
             .add("land_cover", DataTypes.IntegerType, false)
             .add("material", DataTypes.StringType, false)
             .add("district", DataTypes.StringType, true)
@@ -132,7 +133,7 @@ public final class TableOutputs {
                 .add("scenario", DataTypes.StringType, false)
                 .add(key, DataTypes.StringType, false)
                 .add("time", DataTypes.StringType, false)
-                .add("local_hour", DataTypes.IntegerType, false)
+                .add("local_hour_h", DataTypes.IntegerType, false)
                 .add("mean_c", DataTypes.DoubleType, false)
                 .add("p10_c", DataTypes.DoubleType, false)
                 .add("p90_c", DataTypes.DoubleType, false)

@@ -482,18 +482,18 @@ public record RunFile(String source, String name, Site site, Inputs inputs, Weat
          */
         PEAK_HOUR("peak_hour", "Hour of the peak surface temperature", "h",
                 "The local clock hour at which each cell's surface was hottest.",
-                "local clock hour of the peak surface temperature", "h", r -> r.peakHour, "peak_hour",
+                "local clock hour of the peak surface temperature", "h", r -> r.peakHour, "peak_hour_h",
                 Use.NEAREST_OVERVIEWS),
         /** Sum over hours of the excess of surface temperature above the threshold [K h]. */
         DEGREE_HOURS("degree_hours", "Degree-hours above %s", "K·h",
                 "The sum over the counted hours of how far each cell's surface was above the "
                         + "threshold: a measure of how long and how much it was hot.",
                 "degree-hours of surface temperature above the threshold", "K.h", r -> r.degreeHoursAbove,
-                "degree_hours", Use.HOTSPOTS, Use.REPORT, Use.DELTA, Use.THRESHOLD),
+                "degree_hours_k_h", Use.HOTSPOTS, Use.REPORT, Use.DELTA, Use.THRESHOLD),
         /** Number of hours with surface temperature above the threshold [h]. */
         HOURS_ABOVE("hours_above", "Hours above %s", "h",
                 "How many counted hours each cell's surface was above the threshold.",
-                "hours with surface temperature above the threshold", "h", r -> r.hoursAbove, "hours_above",
+                "hours with surface temperature above the threshold", "h", r -> r.hoursAbove, "hours_above_h",
                 Use.HOTSPOTS, Use.REPORT, Use.THRESHOLD);
 
         /** What, besides being written, a map is used for or needs. */
@@ -564,7 +564,11 @@ public record RunFile(String source, String name, Site site, Inputs inputs, Weat
             return values.apply(r);
         }
 
-        /** Its column in the {@code cells} table. */
+        /**
+         * Its column in the {@code cells} table: the key with the unit suffix of
+         * {@code org.thermotile.jobs.storage.TableColumns}' rule ("degree_hours_k_h"); the key itself
+         * names the map in run files and file names and does not change with it.
+         */
         public String column() {
             return column;
         }

@@ -26,7 +26,7 @@ final class HotspotTables {
             .add("holes", DataTypes.IntegerType, false)
             .add("mean_excess_k", DataTypes.DoubleType, false)
             .add("max_abs_excess_k", DataTypes.DoubleType, false)
-            .add("area_x_excess_m2k", DataTypes.DoubleType, false)
+            .add("area_x_excess_k_m2", DataTypes.DoubleType, false)
             .add("max_q", DataTypes.DoubleType, false)
             .add("statistic", DataTypes.StringType, false)
             .add("unit", DataTypes.StringType, false)
@@ -34,10 +34,10 @@ final class HotspotTables {
             .add("mean_z", DataTypes.DoubleType, false)
             .add("district_id", DataTypes.StringType, true)
             .add("district_name", DataTypes.StringType, true)
-            .add("centroid_x", DataTypes.DoubleType, false)
-            .add("centroid_y", DataTypes.DoubleType, false)
-            .add("centroid_lon", DataTypes.DoubleType, false)
-            .add("centroid_lat", DataTypes.DoubleType, false);
+            .add("centroid_x_m", DataTypes.DoubleType, false)       // the maps' CRS (projected, metres)
+            .add("centroid_y_m", DataTypes.DoubleType, false)
+            .add("centroid_lon_deg", DataTypes.DoubleType, false)   // WGS 84
+            .add("centroid_lat_deg", DataTypes.DoubleType, false);
 
     /** One row per district (and one for cells outside every district, or one for all cells); areas are data areas. */
     static final StructType DISTRICTS = new StructType()
@@ -78,8 +78,8 @@ final class HotspotTables {
             .add("q", DataTypes.DoubleType, true)
             .add("band", DataTypes.IntegerType, true)
             .add("label", DataTypes.StringType, false)
-            .add("centroid_x", DataTypes.DoubleType, false)
-            .add("centroid_y", DataTypes.DoubleType, false);
+            .add("centroid_x_m", DataTypes.DoubleType, false)
+            .add("centroid_y_m", DataTypes.DoubleType, false);
 
     static void write(SparkSession spark, List<Row> rows, StructType schema, Path dir) {
         spark.createDataFrame(rows, schema).coalesce(1).write().mode(SaveMode.ErrorIfExists)

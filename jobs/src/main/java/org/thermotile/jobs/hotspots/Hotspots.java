@@ -372,7 +372,7 @@ public final class Hotspots {
             props.put("holes", h.geometry().getNumInteriorRing());
             props.put("mean_excess_k", h.meanExcess());
             props.put("max_abs_excess_k", h.maxAbsExcess());
-            props.put("area_x_excess_m2k", h.areaM2() * Math.abs(h.meanExcess()));
+            props.put("area_x_excess_k_m2", h.areaM2() * Math.abs(h.meanExcess()));
             props.put("max_q", h.maxQ());
             props.put("statistic", field.statistic());
             props.put("unit", field.unit());

@@ -426,8 +426,7 @@ public final class ZoneHotspots {
     }
 
     /** The zones table's columns, in order (Parquet and CSV alike). */
-    static final List<String> COLUMNS = List.of("zone_id", "feature", "area_m2", "covered_fraction", "included",
-            "mean_value", "unit", "excess_k", "z", "q", "band", "label", "centroid_x", "centroid_y");
+    static final List<String> COLUMNS = List.of(HotspotTables.ZONES.fieldNames());
 
     private static void writeTables(SparkSession spark, Path tmp, List<ZoneRow> rows, String unit) throws IOException {
         List<Row> out = new ArrayList<>();

@@ -42,7 +42,7 @@ final class Curves {
      * @throws ReportException when a required column is missing or a time does not parse
      */
     static List<Group> of(Table t, String keyColumn, Path source) {
-        int k = t.require(keyColumn, source), time = t.require("time", source), hour = t.require("local_hour", source);
+        int k = t.require(keyColumn, source), time = t.require("time", source), hour = t.require("local_hour_h", source);
         int mean = t.require("mean_c", source), cells = t.require("cells", source);
         int p10 = t.indexOf("p10_c"), p90 = t.indexOf("p90_c");
         Map<String, Acc> groups = new LinkedHashMap<>();
@@ -53,7 +53,7 @@ final class Curves {
             Acc a = groups.computeIfAbsent(key, x -> new Acc());
             int h = (int) Table.number(r[hour]);
             if (h < 0 || h > 23) {
-                throw new ReportException(source + ", row " + rowNo + ": local_hour " + r[hour]
+                throw new ReportException(source + ", row " + rowNo + ": local_hour_h " + r[hour]
                         + " is outside 0…23. Fix: write the table again with thermotile run");
             }
             LocalDate date;

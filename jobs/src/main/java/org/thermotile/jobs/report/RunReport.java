@@ -312,8 +312,8 @@ public final class RunReport extends ReportSection {
 
     /** Unit suffixes of column names and their symbols, longest first ("_k_h_m2" before "_m2"). */
     private static final String[][] UNIT_SUFFIXES = {
-        {"_per_c_km2", "per °C·km²"}, {"_per_degree_hour_m2", "per K·h·m²"}, {"_c_km2", "°C·km²"},
-        {"_k_h_m2", "K·h·m²"}, {"_eur", "EUR"},
+        {"_per_c_km2", "per °C·km²"}, {"_per_k_h_m2", "per K·h·m²"}, {"_c_km2", "°C·km²"},
+        {"_k_h_m2", "K·h·m²"}, {"_k_m2", "K·m²"}, {"_k_h", "K·h"}, {"_eur", "EUR"},
         {"_km2", "km²"}, {"_m2", "m²"}, {"_wm2", "W/m²"}, {"_c", "°C"}, {"_k", "K"}, {"_m", "m"}, {"_pct", "%"},
     };
 

@@ -52,10 +52,15 @@ public final class Table {
     /**
      * Index of a required column.
      *
-     * @throws ReportException naming {@code source} and the columns that exist
+     * @throws ReportException naming {@code source} and the columns that exist, or, when the table
+     *         has the column's name from before column names carried units, saying so and to run again
      */
     public int require(String column, Path source) {
         int i = columns.indexOf(column);
+        String older = i < 0 ? org.thermotile.jobs.storage.TableColumns.olderLayout(source, column, columns) : null;
+        if (older != null) {
+            throw new ReportException(older);
+        }
         if (i < 0) {
             throw new ReportException(source + ": column '" + column + "' is missing (columns: "
                     + String.join(", ", columns) + "). Fix: write the table again with thermotile run");

@@ -201,7 +201,7 @@ class CityJobTest {
         Class.forName("org.duckdb.DuckDBDriver");
         String cells = out256.resolve("tables/cells") + "/*/*.parquet";
         Map<String, String> column = Map.of("peak", "peak_c", "mean", "mean_c", "night_min", "night_min_c",
-                "peak_hour", "peak_hour", "degree_hours", "degree_hours");
+                "peak_hour", "peak_hour_h", "degree_hours", "degree_hours_k_h");
         try (Connection c = DriverManager.getConnection("jdbc:duckdb:"); Statement st = c.createStatement()) {
             for (var e : column.entrySet()) {
                 JsonNode info = Gdal.info(out256.resolve("maps/" + e.getKey() + ".tif"));

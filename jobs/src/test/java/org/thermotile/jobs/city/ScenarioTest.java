@@ -91,7 +91,7 @@ class ScenarioTest {
         for (String s : List.of("zero-adoption", "same-values")) {
             long differ = count("select count(*) from c b join c s using (col, row) where b.scenario = 'baseline'"
                     + " and s.scenario = '" + s + "' and (b.peak_c <> s.peak_c or b.mean_c <> s.mean_c"
-                    + " or b.degree_hours <> s.degree_hours or b.night_min_c <> s.night_min_c)");
+                    + " or b.degree_hours_k_h <> s.degree_hours_k_h or b.night_min_c <> s.night_min_c)");
             assertEquals(0, differ, s);
             assertEquals(count("select count(*) from c where scenario = 'baseline'"),
                     count("select count(*) from c where scenario = '" + s + "'"), s);
@@ -167,9 +167,9 @@ class ScenarioTest {
         assertEquals(625.0 * n, all.<Double>getAs("cost"), 1e-6);
         assertEquals(25.0 * n, all.<Double>getAs("treated_area_m2"), 1e-9);
         view();
-        double dh = spark.sql("select sum(b.degree_hours - s.degree_hours) * 25 from c b join c s using (col, row)"
+        double dh = spark.sql("select sum(b.degree_hours_k_h - s.degree_hours_k_h) * 25 from c b join c s using (col, row)"
                 + " where b.scenario = 'baseline' and s.scenario = 'cool-dark-roofs'").first().getDouble(0);
-        assertEquals(625.0 * n / dh, all.<Double>getAs("cost_per_degree_hour_m2"), 1e-9 * (625.0 * n / dh));
+        assertEquals(625.0 * n / dh, all.<Double>getAs("cost_per_k_h_m2"), 1e-9 * (625.0 * n / dh));
         // West-only street treatment: cost only in West.
         Row west = spark.read().parquet(out.resolve("comparison/districts.parquet").toString())
                 .where("scenario = 'west-only' and district = 'East'").first();
@@ -299,5 +299,25 @@ class ScenarioTest {
         assertEquals(List.of("baseline", "grid-albedo0.5-adoption0.5", "grid-albedo0.5-adoption1",
                 "grid-albedo0.6-adoption0.5", "grid-albedo0.6-adoption1"),
                 p.plan().variants().stream().map(ScenarioVariant::name).toList());
+    }
+
+    /**
+     * A run folder written before the columns carried their units (its cells table still has
+     * degree_hours): the comparison stops naming the table, the old and the new name and the fix,
+     * not with Spark's unresolved-column error.
+     */
+    @Test
+    void comparisonOfAnOlderRunFolderSaysToRunAgain() throws Exception {
+        Path old = dir.resolve("older-layout");
+        Files.createDirectories(old);
+        Files.copy(out.resolve("manifest.json"), old.resolve("manifest.json"));
+        spark.read().parquet(out.resolve("tables/cells").toString())
+                .withColumnRenamed(org.thermotile.jobs.config.RunFile.MapKind.DEGREE_HOURS.column(), "degree_hours")
+                .write().partitionBy("scenario").parquet(old.resolve("tables/cells").toString());
+        var e = assertThrows(UserInputException.class, () -> Comparison.write(spark, old));
+        assertTrue(e.getMessage().startsWith(old.resolve("tables/cells") + ": column 'degree_hours' is named "
+                + "'degree_hours_k_h'"), e.getMessage());
+        assertTrue(e.getMessage().contains("Fix: run the run file again"), e.getMessage());
+        assertTrue(!Files.exists(old.resolve("comparison")), "nothing written");
     }
 }

@@ -183,7 +183,10 @@ class HotspotsJobTest {
             assertTrue(f.polygon.isValid(), "valid: " + f.props);
             assertEquals(f.props.path("cells").asInt() * ACELL_AREA, f.polygon.getArea(), 1e-6, f.props.toString());
             assertEquals(i + 1, f.props.path("id").asInt());
-            double key = f.props.path("area_x_excess_m2k").asDouble();
+            // GeoJSON properties follow the tables' unit-suffix rule (TableColumns) too.
+            f.props.fieldNames().forEachRemaining(k -> assertTrue(
+                    org.thermotile.jobs.storage.TableColumns.followsRule(k), "property without its unit: " + k));
+            double key = f.props.path("area_x_excess_k_m2").asDouble();
             assertEquals(f.polygon.getArea() * Math.abs(f.props.path("mean_excess_k").asDouble()), key, 1e-6 * key);
             assertTrue(key <= previous, "sorted by area × excess");
             previous = key;

@@ -79,8 +79,8 @@ class ZoneHotspotsTest {
         List<double[]> in = new ArrayList<>();
         for (Row r : table) {
             if (r.getBoolean(r.fieldIndex("included"))) {
-                in.add(new double[] {r.getDouble(r.fieldIndex("mean_value")), r.getDouble(r.fieldIndex("centroid_x")),
-                        r.getDouble(r.fieldIndex("centroid_y"))});
+                in.add(new double[] {r.getDouble(r.fieldIndex("mean_value")), r.getDouble(r.fieldIndex("centroid_x_m")),
+                        r.getDouble(r.fieldIndex("centroid_y_m"))});
             }
         }
         int m = in.size();
@@ -99,7 +99,7 @@ class ZoneHotspotsTest {
                 assertTrue(r.isNullAt(r.fieldIndex("z")) && r.isNullAt(r.fieldIndex("band")));
                 continue;
             }
-            double x = r.getDouble(r.fieldIndex("centroid_x")), y = r.getDouble(r.fieldIndex("centroid_y"));
+            double x = r.getDouble(r.fieldIndex("centroid_x_m")), y = r.getDouble(r.fieldIndex("centroid_y_m"));
             double wx = 0, w = 0;
             for (double[] a : in) {
                 if (Math.hypot(a[1] - x, a[2] - y) <= d * (1 + 1e-9)) {
@@ -151,7 +151,7 @@ class ZoneHotspotsTest {
     void csvAndGeoJsonCarryTheTable() throws IOException {
         List<String> csv = Files.readAllLines(out.resolve("zones.csv"));
         assertEquals("zone_id,feature,area_m2,covered_fraction,included,mean_value,unit,excess_k,z,q,band,label,"
-                + "centroid_x,centroid_y", csv.get(0));
+                + "centroid_x_m,centroid_y_m", csv.get(0));
         assertEquals(100, csv.size());
         Row h = table.stream().filter(x -> x.getString(0).equals("H-wide")).findFirst().orElseThrow();
         String line = csv.stream().filter(l -> l.startsWith("H-wide,")).findFirst().orElseThrow();
@@ -166,6 +166,8 @@ class ZoneHotspotsTest {
             for (String k : List.of("zone_id", "area_m2", "covered_fraction", "mean_value", "excess_k", "z", "q", "band")) {
                 assertTrue(p.has(k), k);
             }
+            p.fieldNames().forEachRemaining(k -> assertTrue(
+                    org.thermotile.jobs.storage.TableColumns.followsRule(k), "property without its unit: " + k));
             multi += f.path("geometry").path("type").asText().equals("MultiPolygon") ? 1 : 0;
         }
         assertEquals(1, multi);

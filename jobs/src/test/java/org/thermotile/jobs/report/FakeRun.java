@@ -32,7 +32,7 @@ final class FakeRun {
     static final String[] DISTRICTS = {"Old Quay", "Linden Park"};
     static final int DAYS = 2, HOURS = 24 * DAYS;
 
-    /** The rows written to tables/material_hours: material, time, local_hour, mean_c, cells. */
+    /** The rows written to tables/material_hours: material, time, local_hour_h, mean_c, cells. */
     static List<Row> materialRows() {
         List<Row> rows = new ArrayList<>();
         OffsetDateTime t0 = OffsetDateTime.parse("2026-07-15T00:00+02:00");
@@ -57,14 +57,14 @@ final class FakeRun {
     static final StructType MATERIAL_HOURS = new StructType()
             .add("material", DataTypes.StringType, false)
             .add("time", DataTypes.StringType, false)
-            .add("local_hour", DataTypes.IntegerType, false)
+            .add("local_hour_h", DataTypes.IntegerType, false)
             .add("mean_c", DataTypes.DoubleType, false)
             .add("cells", DataTypes.LongType, false);
 
     static final StructType DISTRICT_HOURS = new StructType()
             .add("district", DataTypes.StringType, false)
             .add("time", DataTypes.StringType, false)
-            .add("local_hour", DataTypes.IntegerType, false)
+            .add("local_hour_h", DataTypes.IntegerType, false)
             .add("mean_c", DataTypes.DoubleType, false)
             .add("p10_c", DataTypes.DoubleType, false)
             .add("p90_c", DataTypes.DoubleType, false)

@@ -14,7 +14,7 @@ class HeadingTest {
     void columnNamesBecomeHeadingsWithUnitSymbols() {
         assertEquals("Peak reduction (°C·km²)", RunReport.heading("peak_reduction_c_km2"));
         assertEquals("Cost (per °C·km²)", RunReport.heading("cost_per_c_km2"));
-        assertEquals("Cost (per K·h·m²)", RunReport.heading("cost_per_degree_hour_m2"));
+        assertEquals("Cost (per K·h·m²)", RunReport.heading("cost_per_k_h_m2"));
         assertEquals("Degree hours avoided (K·h·m²)", RunReport.heading("degree_hours_avoided_k_h_m2"));
         assertEquals("Treated area (m²)", RunReport.heading("treated_area_m2"));
         assertEquals("Peak reduction mean (°C)", RunReport.heading("peak_reduction_mean_c"));

@@ -334,14 +334,14 @@ class RunReportTest {
     void parquetReaderAgreesWithDuckDb() throws Exception {
         Path mh = full.resolve("tables/material_hours");
         Table t = Table.readParquet(mh);
-        assertEquals(List.of("material", "time", "local_hour", "mean_c", "cells"), t.columns());
+        assertEquals(List.of("material", "time", "local_hour_h", "mean_c", "cells"), t.columns());
         List<String> ours = new ArrayList<>();
         for (Object[] r : t.rows()) {
             ours.add(r[0] + "|" + r[1] + "|" + r[2] + "|" + r[3] + "|" + r[4]);
         }
         List<String> duck = new ArrayList<>();
         try (Connection c = DriverManager.getConnection("jdbc:duckdb:"); Statement s = c.createStatement();
-             ResultSet rs = s.executeQuery("SELECT material, time, local_hour, mean_c, cells FROM read_parquet('"
+             ResultSet rs = s.executeQuery("SELECT material, time, local_hour_h, mean_c, cells FROM read_parquet('"
                      + mh.resolve("*.parquet") + "')")) {
             while (rs.next()) {
                 duck.add(rs.getString(1) + "|" + rs.getString(2) + "|" + rs.getInt(3) + "|" + rs.getDouble(4) + "|"
