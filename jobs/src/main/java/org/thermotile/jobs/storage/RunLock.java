@@ -90,13 +90,6 @@ public final class RunLock implements AutoCloseable {
         this.content = content;
     }
 
-    /** A lock that holds nothing. */
-    public static RunLock none() {
-        RunLock l = new RunLock(null, "");
-        l.released = true;
-        return l;
-    }
-
     /** The lock file of a run folder: {@code .NAME.lock} in its parent. */
     public static Path fileOf(Path runDir) {
         Path dir = runDir.toAbsolutePath().normalize();
@@ -197,14 +190,14 @@ public final class RunLock implements AutoCloseable {
         release();
     }
 
-    /** The local lock file, or null for a lock on a Hadoop file system (see {@link #location}) or none. */
+    /** The local lock file, or null for a lock on a Hadoop file system (see {@link #location}). */
     public Path file() {
         return store instanceof LocalStore l ? l.file : null;
     }
 
-    /** The lock file's path or URI; null for {@link #none}. */
+    /** The lock file's path or URI. */
     public String location() {
-        return store == null ? null : store.location();
+        return store.location();
     }
 
     /** A lock file's fields ({@code key=value} lines; other lines are skipped). */
