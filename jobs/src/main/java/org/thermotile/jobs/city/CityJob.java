@@ -218,10 +218,24 @@ public final class CityJob {
                     + "place, which is done for local output folders only. Fix: copy the run folder to a local "
                     + "folder (hadoop fs -get), resume there, or run again with --replace");
         }
+        // The lock first, as for a local folder: a second command on this target is refused before it stages anything.
+        RunLock lock = RunLock.acquireRemote(target, "run " + shellWord(opt.runFile() == null ? "RUNFILE"
+                : opt.runFile()) + " --out " + shellWord(target), System.err);
+        try {
+            return runToHadoopLocked(session, periods, opt, console, target, t0, lock);
+        } finally {
+            lock.release();
+        }
+    }
+
+    private static Summary runToHadoopLocked(SparkSession session, List<PreparedRun> periods, Options opt,
+            PrintStream console, String target, long t0, RunLock lock) {
         if (OutputStore.exists(target) && !opt.replace()) {
             throw new UserInputException("--out " + target + " already exists. Fix: choose another --out folder or "
                     + "add --replace to overwrite it");
         }
+        // What a killed run of this target left beside it: with the lock held, no live run owns it.
+        OutputStore.deleteStaleMirrors(target);
         String name = target.substring(target.lastIndexOf('/') + 1);
         Path stagingRoot;
         try {
@@ -233,8 +247,8 @@ public final class CityJob {
         // Unique per run: tasks cache the files they fetch from it by location.
         String partial = target.substring(0, target.lastIndexOf('/') + 1) + "." + name + "."
                 + stagingRoot.getFileName().toString().replace("thermotile-out-", "") + ".partial";
-        // No lock file on a Hadoop file system (see README, Faults and stops); the stop hook still cleans up.
-        RunStop stop = RunStop.register(null, stagingRoot, partial, RunLock.none(),
+        // The stop hook cleans up and releases the lock (.NAME.lock beside the target, see RunLock).
+        RunStop stop = RunStop.register(null, stagingRoot, partial, lock,
                 resumeCommand(opt, target).replace(" --resume", " --replace"), System.err);
         try {
             Path staging = Files.createDirectories(stagingRoot.resolve(name));

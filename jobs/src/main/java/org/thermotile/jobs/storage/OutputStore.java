@@ -145,6 +145,34 @@ public final class OutputStore {
     }
 
     /**
+     * Deletes the mirrors {@code .NAME.N.partial} (N: a run's number) beside {@code target} that
+     * runs killed before their clean-up left behind. Only for a caller holding {@code target}'s lock
+     * ({@link RunLock#acquireRemote}): no live run of {@code target} owns one then.
+     */
+    public static void deleteStaleMirrors(String target) {
+        String name = target.substring(target.lastIndexOf('/') + 1);
+        org.apache.hadoop.fs.Path parent = new org.apache.hadoop.fs.Path(target).getParent();
+        // The run's own number only (digits, from its local staging folder's name): not .NAME.x.N.partial,
+        // which is the mirror of the folder NAME.x, under a lock of its own.
+        java.util.regex.Pattern mirror = java.util.regex.Pattern.compile("\\." + java.util.regex.Pattern.quote(name)
+                + "\\.[0-9]+\\.partial");
+        try {
+            FileSystem fs = fileSystem(target);
+            if (parent == null || !fs.exists(parent)) {
+                return;
+            }
+            for (org.apache.hadoop.fs.FileStatus st : fs.listStatus(parent)) {
+                String n = st.getPath().getName();
+                if (mirror.matcher(n).matches()) {
+                    fs.delete(st.getPath(), true);
+                }
+            }
+        } catch (IOException e) {
+            throw new UncheckedIOException("cannot remove the unfinished mirrors beside " + target, e);
+        }
+    }
+
+    /**
      * Replaces {@code partial} with the staging folder's content and renames it to {@code target}
      * (deleting an older {@code target} first): the last step of a run on a Hadoop file system.
      */
@@ -171,7 +199,7 @@ public final class OutputStore {
         return FileSystem.get(URI.create(uri), InputStaging.configuration());
     }
 
-    private static UserInputException unreachable(String uri, Exception e) {
+    static UserInputException unreachable(String uri, Exception e) {
         return new UserInputException("--out " + uri + ": the file system cannot be reached (" + e.getMessage()
                 + "). Fix: check the URI, that the name node is up and reachable from the driver, and for s3a:// "
                 + "that the S3 connector (hadoop-aws) is on the class path", e);

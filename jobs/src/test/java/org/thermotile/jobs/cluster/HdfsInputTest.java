@@ -23,6 +23,7 @@ import org.junit.jupiter.api.io.TempDir;
 import org.thermotile.jobs.city.CityJob;
 import org.thermotile.jobs.city.RunPreparer;
 import org.thermotile.jobs.city.SparkSessions;
+import org.thermotile.jobs.cli.Main;
 import org.thermotile.jobs.errors.UserInputException;
 import org.thermotile.jobs.config.RunFileReader;
 
@@ -33,7 +34,8 @@ import org.thermotile.jobs.config.RunFileReader;
  * file distribution) gives the same bytes as the same run file with {@code file://} URIs for
  * the inputs and the output folder, and its manifest names the URIs with the same SHA-256 as the
  * local files. With the output folder on HDFS too, the published folder holds the bytes of a local
- * run (see OutputStore).
+ * run (see OutputStore), and the run holds the lock {@code .NAME.lock} beside its target as a local
+ * run does (see RunLock).
  */
 class HdfsInputTest {
     static final Path DEMO_DIR = ClusterRunTest.DEMO_DIR;
@@ -143,10 +145,30 @@ class HdfsInputTest {
         Path local = dir.resolve("full-local");
         run(fullRunFile(dir.resolve("full-local.yaml"), DEMO_DIR.toUri().toString()), local, true);
         String target = root + "runs/full";
-        run(fullRunFile(dir.resolve("full-hdfs.yaml"), root), Path.of(target), true);
-
+        // A run of this host killed before its clean-up: its lock (a PID that has ended) and its mirror.
         FileSystem fs = hdfs.getFileSystem();
-        // Published once, nothing left beside it.
+        long dead = deadPid();
+        String host = java.net.InetAddress.getLocalHost().getHostName();
+        try (var o = fs.create(new org.apache.hadoop.fs.Path(root + "runs/.full.lock"), false)) {
+            o.write(("pid=" + dead + "\nhost=" + host + "\nstarted=2026-07-01T10:00:00Z\ncommand=thermotile run old.yaml "
+                    + "--out " + target + "\n").getBytes(java.nio.charset.StandardCharsets.UTF_8));
+        }
+        try (var o = fs.create(new org.apache.hadoop.fs.Path(root + "runs/.full.4242.partial/maps/peak.tif"), false)) {
+            o.write("half a file".getBytes(java.nio.charset.StandardCharsets.UTF_8));
+        }
+        ByteArrayOutputStream warnings = new ByteArrayOutputStream();
+        PrintStream err = System.err;
+        System.setErr(new PrintStream(warnings, true, java.nio.charset.StandardCharsets.UTF_8));
+        try {
+            run(fullRunFile(dir.resolve("full-hdfs.yaml"), root), Path.of(target), true);
+        } finally {
+            System.setErr(err);
+        }
+        String w = warnings.toString(java.nio.charset.StandardCharsets.UTF_8);
+        assertTrue(w.contains("warning: taking over the stale lock " + root + "runs/.full.lock of thermotile run old.yaml")
+                && w.contains("(PID " + dead + " on " + host + ", since 2026-07-01T10:00:00Z)"), w);
+
+        // Published once, nothing left beside it: the stale lock and mirror are gone, the run's lock released.
         List<String> beside = new java.util.ArrayList<>();
         for (var st : fs.listStatus(new org.apache.hadoop.fs.Path(root + "runs"))) {
             beside.add(st.getPath().getName());
@@ -178,23 +200,55 @@ class HdfsInputTest {
         assertTrue(Files.readString(back.resolve("report.html")).contains("not air temperature"));
     }
 
+    /**
+     * A run holds {@code .x.lock} beside its HDFS target: a second run to the same target meanwhile
+     * exits 2 naming the holder, the lock's URI and how to remove it, and stages nothing; the first
+     * run then fails, and leaves nothing on HDFS, its lock included.
+     */
     @Test
-    void aFailedRunLeavesNothingOnHdfs() throws Exception {
+    void aSecondRunIsRefusedWhileTheFirstHoldsTheLockAndAFailedRunLeavesNothingOnHdfs() throws Exception {
         String target = root + "runs-failed/x";
+        String lock = root + "runs-failed/.x.lock";
         Path rf = oneDayRunFile(dir.resolve("failing.yaml"), root);
+        FileSystem fs = hdfs.getFileSystem();
+        org.apache.hadoop.fs.Path parent = new org.apache.hadoop.fs.Path(root + "runs-failed");
+        int[] second = {-1};
+        String[] secondErr = {null};
+        List<String> during = new java.util.ArrayList<>();
         SparkSession s = SparkSessions.get(null, 2);
         try {
             RuntimeException e = org.junit.jupiter.api.Assertions.assertThrows(RuntimeException.class,
                     () -> CityJob.run(s, RunPreparer.prepare(RunFileReader.read(rf)),
                             new CityJob.Options(Path.of(target), null, false, true, 2, false, folder -> {
+                                java.io.StringWriter err = new java.io.StringWriter();
+                                picocli.CommandLine cl = new picocli.CommandLine(new Main());
+                                cl.setErr(new java.io.PrintWriter(err));
+                                cl.setOut(new java.io.PrintWriter(new java.io.StringWriter()));
+                                second[0] = Main.executeWith(cl, "run", rf.toString(), "--out", target, "--quiet");
+                                secondErr[0] = err.toString();
+                                try {
+                                    for (var st : fs.listStatus(parent)) {
+                                        during.add(st.getPath().getName());
+                                    }
+                                } catch (java.io.IOException x) {
+                                    throw new java.io.UncheckedIOException(x);
+                                }
                                 throw new IllegalStateException("stop before publishing");
-                            }), new PrintStream(new ByteArrayOutputStream())));
+                            }, rf.toString()), new PrintStream(new ByteArrayOutputStream())));
             assertEquals("stop before publishing", e.getMessage());
         } finally {
             s.stop();
         }
-        FileSystem fs = hdfs.getFileSystem();
-        org.apache.hadoop.fs.Path parent = new org.apache.hadoop.fs.Path(root + "runs-failed");
+        String pid = Long.toString(ProcessHandle.current().pid());
+        assertEquals(Main.BAD_INPUT, second[0], secondErr[0]);
+        assertTrue(secondErr[0].contains(target + " is in use by another thermotile command: thermotile run " + rf
+                + " --out " + target + " (PID " + pid + " on "), secondErr[0]);
+        assertTrue(secondErr[0].contains("if it is surely not running, remove the lock with hdfs dfs -rm " + lock),
+                secondErr[0]);
+        // While the first run stages: its lock and its one mirror, nothing of the refused run.
+        assertEquals(2, during.size(), during.toString());
+        assertTrue(during.contains(".x.lock") && during.stream().anyMatch(n -> n.matches("\\.x\\.[0-9]+\\.partial")),
+                during.toString());
         assertTrue(!fs.exists(parent) || fs.listStatus(parent).length == 0, "left on HDFS: "
                 + (fs.exists(parent) ? List.of(fs.listStatus(parent)) : List.of()));
     }
@@ -235,6 +289,14 @@ class HdfsInputTest {
                 () -> RunPreparer.prepare(RunFileReader.read(in)));
         assertTrue(e.getMessage().startsWith("inputs.land_cover: s3a://bucket/riverside/landcover.tif cannot be read")
                 && e.getMessage().contains("hadoop-aws"), e.getMessage());
+    }
+
+    /** The PID of a process that has ended. */
+    static long deadPid() throws Exception {
+        Process p = new ProcessBuilder("true").start();
+        p.waitFor();
+        assertTrue(ProcessHandle.of(p.pid()).map(h -> !h.isAlive()).orElse(true));
+        return p.pid();
     }
 
     /** Runs on a session of its own; {@code out} as a command line's path conversion gives it. */
