@@ -25,6 +25,7 @@ import org.thermotile.jobs.config.RunFileReader;
 import org.thermotile.jobs.errors.UserInputException;
 import org.thermotile.jobs.storage.RunLock;
 import picocli.CommandLine;
+import org.thermotile.jobs.testing.Processes;
 
 /**
  * One command at a time per output folder: a second run, resume, compare,
@@ -113,7 +114,7 @@ class FolderLockTest {
     void aStaleLockIsReportedAndTakenOver() throws Exception {
         Path out = dir.resolve("stale");
         Path lockFile = RunLock.fileOf(out);
-        long deadPid = deadPid();
+        long deadPid = Processes.deadPid();
         Files.writeString(lockFile, "pid=" + deadPid + "\nhost=" + java.net.InetAddress.getLocalHost().getHostName()
                 + "\nstarted=2026-07-01T10:00:00Z\ncommand=thermotile run old.yaml --out " + out + "\n");
         // What the killed run left staged is removed, not published.
@@ -165,15 +166,6 @@ class FolderLockTest {
         }
         assertFalse(Files.exists(RunLock.fileOf(out)), "lock released on failure");
         assertEquals("the user's own", Files.readString(out.resolve("notes.txt")));
-    }
-
-    /** The PID of a process that has ended. */
-    static long deadPid() throws Exception {
-        Process p = new ProcessBuilder("true").start();
-        p.waitFor();
-        long pid = p.pid();
-        assertFalse(ProcessHandle.of(pid).map(ProcessHandle::isAlive).orElse(false));
-        return pid;
     }
 
     /** Every file of {@code a} is in {@code b} with the same bytes, and no more files. */

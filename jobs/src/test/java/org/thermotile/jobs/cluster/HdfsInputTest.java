@@ -26,6 +26,7 @@ import org.thermotile.jobs.city.SparkSessions;
 import org.thermotile.jobs.cli.Main;
 import org.thermotile.jobs.errors.UserInputException;
 import org.thermotile.jobs.config.RunFileReader;
+import org.thermotile.jobs.testing.Processes;
 
 /**
  * Inputs on HDFS: an HDFS MiniDFSCluster (one name node, one data node) in this JVM beside Spark
@@ -147,7 +148,7 @@ class HdfsInputTest {
         String target = root + "runs/full";
         // A run of this host killed before its clean-up: its lock (a PID that has ended) and its mirror.
         FileSystem fs = hdfs.getFileSystem();
-        long dead = deadPid();
+        long dead = Processes.deadPid();
         String host = java.net.InetAddress.getLocalHost().getHostName();
         try (var o = fs.create(new org.apache.hadoop.fs.Path(root + "runs/.full.lock"), false)) {
             o.write(("pid=" + dead + "\nhost=" + host + "\nstarted=2026-07-01T10:00:00Z\ncommand=thermotile run old.yaml "
@@ -289,14 +290,6 @@ class HdfsInputTest {
                 () -> RunPreparer.prepare(RunFileReader.read(in)));
         assertTrue(e.getMessage().startsWith("inputs.land_cover: s3a://bucket/riverside/landcover.tif cannot be read")
                 && e.getMessage().contains("hadoop-aws"), e.getMessage());
-    }
-
-    /** The PID of a process that has ended. */
-    static long deadPid() throws Exception {
-        Process p = new ProcessBuilder("true").start();
-        p.waitFor();
-        assertTrue(ProcessHandle.of(p.pid()).map(h -> !h.isAlive()).orElse(true));
-        return p.pid();
     }
 
     /** Runs on a session of its own; {@code out} as a command line's path conversion gives it. */

@@ -19,6 +19,7 @@ import org.junit.jupiter.api.io.TempDir;
 import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.ValueSource;
 import org.thermotile.jobs.errors.UserInputException;
+import org.thermotile.jobs.testing.Processes;
 
 /**
  * The lock's contract, run against both of its stores: a local folder (CREATE_NEW) and a Hadoop
@@ -107,7 +108,7 @@ class RunLockTest {
     @ValueSource(strings = {"local", "hadoop"})
     void aStaleLockOfThisHostIsReportedAndTakenOver(String kind) throws Exception {
         Target t = target(kind, "stale");
-        long dead = deadPid();
+        long dead = Processes.deadPid();
         write(t, "pid=" + dead + "\nhost=" + RunLock.host()
                 + "\nstarted=2026-07-01T10:00:00Z\ncommand=thermotile run old.yaml --out stale\n");
         ByteArrayOutputStream warn = new ByteArrayOutputStream();
@@ -176,14 +177,5 @@ class RunLockTest {
         try (Stream<Path> s = Files.list(dir)) {
             return s.map(p -> p.getFileName().toString()).sorted().toList();
         }
-    }
-
-    /** The PID of a process that has ended. */
-    static long deadPid() throws Exception {
-        Process p = new ProcessBuilder("true").start();
-        p.waitFor();
-        long pid = p.pid();
-        assertFalse(ProcessHandle.of(pid).map(ProcessHandle::isAlive).orElse(false));
-        return pid;
     }
 }
