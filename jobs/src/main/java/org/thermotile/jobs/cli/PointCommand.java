@@ -13,10 +13,12 @@ import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
 import java.util.concurrent.Callable;
+import org.thermotile.jobs.config.Suggest;
 import org.thermotile.jobs.errors.UserInputException;
 import org.thermotile.jobs.io.weather.GapFill;
 import org.thermotile.jobs.io.weather.WeatherCsv;
 import org.thermotile.jobs.io.weather.WeatherRead;
+import org.thermotile.model.balance.ColumnSpacing;
 import org.thermotile.model.balance.Convection;
 import org.thermotile.model.balance.SingleSurface;
 import org.thermotile.model.balance.SurfaceBlock.Flux;
@@ -103,6 +105,11 @@ final class PointCommand implements Callable<Integer> {
             description = "'mcadams' (wind correlation) or a fixed coefficient in W/(m² K) (default ${DEFAULT-VALUE})")
     String convection;
 
+    @Option(names = "--column-spacing", paramLabel = "NAME", defaultValue = "standard",
+            description = "spacing of the conduction nodes, as the run file's physics.column_spacing: standard or "
+                    + "coarse (fewer nodes below 25 cm; default ${DEFAULT-VALUE})")
+    String columnSpacing;
+
     @Option(names = {"--deep-ground-temp-c", "--deep-ground"}, paramLabel = "°C", description = "deep-ground temperature (default: mean air temperature)")
     Double deepGroundC;
 
@@ -130,7 +137,7 @@ final class PointCommand implements Callable<Integer> {
                 : java.util.Arrays.stream(forcing.airTempK).average().orElseThrow();
         int firstHour = Math.max(1, 24 * spinUpDays);
         SingleSurface.Result r = SingleSurface.run(material, forcing, stepMinutes, conv, deepK, firstHour,
-                thresholdC + Physical.ZERO_CELSIUS_K);
+                thresholdC + Physical.ZERO_CELSIUS_K, parseColumnSpacing(columnSpacing));
 
         ZoneOffset zo = ZoneOffset.ofTotalSeconds(forcing.utcOffsetSeconds);
         if (out != null) {
@@ -184,6 +191,17 @@ final class PointCommand implements Callable<Integer> {
         HourlyWeather w = SyntheticWeather.clearSky(site, SyntheticWeather.Spec.withRelativeHumidity(first,
                 days + spinUpDays, zo.getTotalSeconds(), tMinC, tMaxC, rhPct / 100.0, windMs));
         return w;
+    }
+
+    static ColumnSpacing parseColumnSpacing(String s) {
+        ColumnSpacing spacing = ColumnSpacing.named(s);
+        if (spacing == null) {
+            throw new UserInputException("--column-spacing '" + s + "' is not a column spacing"
+                    + Suggest.closest(s, ColumnSpacing.names()).map(c -> " (did you mean '" + c + "'?)").orElse("")
+                    + ". Fix: give one of "
+                    + String.join(" | ", ColumnSpacing.names()));
+        }
+        return spacing;
     }
 
     static Convection parseConvection(String s) {

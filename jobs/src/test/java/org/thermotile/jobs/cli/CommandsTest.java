@@ -1,6 +1,7 @@
 package org.thermotile.jobs.cli;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertNotEquals;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import java.io.PrintWriter;
@@ -66,6 +67,39 @@ class CommandsTest {
     static double peak(Path csv) throws Exception {
         return Files.readAllLines(csv).stream().skip(1).mapToDouble(l -> Double.parseDouble(l.split(",")[1]))
                 .max().orElseThrow();
+    }
+
+    @Test
+    void pointTakesTheRunFilesColumnSpacing() throws Exception {
+        // A roof is thinner than the 25 cm below which both spacings agree: the same bytes. A
+        // pavement column has nodes below it: coarse gives other, nearby, temperatures.
+        Path roofStd = dir.resolve("roof-standard.csv");
+        Path roofCoarse = dir.resolve("roof-coarse.csv");
+        Path paveStd = dir.resolve("pave-standard.csv");
+        Path paveCoarse = dir.resolve("pave-coarse.csv");
+        String[] site = {"--lat", "45.3", "--lon", "9.9", "--days", "2"};
+        assertEquals(0, run(cat(site, "point", "-m", "roof_membrane_dark", "-o", roofStd.toString())).status());
+        assertEquals(0, run(cat(site, "point", "-m", "roof_membrane_dark", "--column-spacing", "coarse", "-o",
+                roofCoarse.toString())).status());
+        assertEquals(Files.readString(roofStd), Files.readString(roofCoarse));
+        assertEquals(0, run(cat(site, "point", "-m", "concrete", "-o", paveStd.toString())).status());
+        Result rc = run(cat(site, "point", "-m", "concrete", "--column-spacing", "coarse", "-o", paveCoarse.toString()));
+        assertEquals(0, rc.status(), rc.err());
+        assertNotEquals(Files.readString(paveStd), Files.readString(paveCoarse));
+        // Within the month-long bound ColumnSpacingTest measures (0.40 K at any hour).
+        assertEquals(peak(paveStd), peak(paveCoarse), 0.5);
+
+        Result bad = run(cat(site, "point", "-m", "concrete", "--column-spacing", "corse"));
+        assertEquals(Main.BAD_INPUT, bad.status());
+        assertTrue(bad.err().contains("--column-spacing 'corse'") && bad.err().contains("did you mean 'coarse'"),
+                bad.err());
+    }
+
+    /** {@code head} first (the command and its options), then {@code tail}. */
+    private static String[] cat(String[] tail, String... head) {
+        String[] all = java.util.Arrays.copyOf(head, head.length + tail.length);
+        System.arraycopy(tail, 0, all, head.length, tail.length);
+        return all;
     }
 
     @Test
