@@ -180,7 +180,6 @@ public final class BalanceKernel {
         final double[] swOf = sc.shortwave;
         final double[] lwInOf = sc.longwaveIn;
         final double[] tStart = sc.t[0];
-        final double[] leOf = sc.latent;
         for (int c0 = a; c0 < b; c0 += SurfaceScratch.CHUNK) {
             final int len = Math.min(b - c0, SurfaceScratch.CHUNK);
             // 2a. The right-hand side R and the coefficients of every cell of the chunk.
@@ -209,13 +208,7 @@ public final class BalanceKernel {
                 swOf[i] = sw;
                 lwInOf[i] = lwIn;
                 tStart[i] = t0Old;
-            }
-            // Apart from the loop above, so that loop has no reduction and compiles to vector code.
-            for (int i = 0; i < len; i++) {
-                if (bqOf[i] != 0) {
-                    evaporating = true;
-                    break;
-                }
+                evaporating |= bq != 0;
             }
             // 2b. Newton iterations in lockstep across the chunk, each one a loop without branches,
             // until every cell's update is below the tolerance (or LOCKSTEP iterations are done).
@@ -241,9 +234,7 @@ public final class BalanceKernel {
             }
             // 2c. Each cell takes the iterate at which its own Newton sequence stopped — the
             // first update below the tolerance — so the result is the cell-by-cell sweep's, bit
-            // for bit; a cell still moving after the lockstep iterations goes on alone. Only the
-            // choice (and the latent flux, which goes with it) is done cell by cell; the other
-            // surface terms follow in 2d, one loop without branches.
+            // for bit; a cell still moving after the lockstep iterations goes on alone.
             for (int i = 0; i < len; i++) {
                 final int s = c0 + i;
                 final double es = esOf[i];
@@ -295,13 +286,28 @@ public final class BalanceKernel {
                     }
                 }
                 t0Row[s - first] = t;
-                // The latent flux with the converged temperature (q_sat from its last linearisation).
-                leOf[i] = bq == 0 ? 0.0 : bq * (qsAt + dqsAt * (t - tAt) - qa);
-            }
-            // 2d. The surface terms with the converged temperatures.
-            surfaceTerms(block, sc, t0Row, c0, len, first, hc, ta, netOf, grossOf, t0Of);
-            if (record) {
-                recordSurfaceFluxes(block, sc, t0Row, c0, len, first, hc, ta);
+
+                // The surface terms with the converged temperature (q_sat from its last linearisation).
+                final double sw = swOf[i];
+                final double lwIn = lwInOf[i];
+                final double qf = block.anthropogenicWm2[s];
+                double t2 = t * t;
+                double lwOut = es * t2 * t2;
+                double h = hc * (t - ta);
+                double le = bq == 0 ? 0.0 : bq * (qsAt + dqsAt * (t - tAt) - qa);
+                t0Of[s] = t0Old;
+                netOf[s] = sw + lwIn - lwOut - h - le + qf;
+                grossOf[s] = Math.abs(sw) + Math.abs(lwIn) + Math.abs(lwOut) + Math.abs(h)
+                        + Math.abs(le) + Math.abs(qf);
+                if (record) {
+                    double[][] fl = block.flux;
+                    fl[SurfaceBlock.Flux.NET_SHORTWAVE.ordinal()][s] += sw;
+                    fl[SurfaceBlock.Flux.ABSORBED_SKY_LONGWAVE.ordinal()][s] += lwIn;
+                    fl[SurfaceBlock.Flux.EMITTED_LONGWAVE.ordinal()][s] += lwOut;
+                    fl[SurfaceBlock.Flux.SENSIBLE.ordinal()][s] += h;
+                    fl[SurfaceBlock.Flux.LATENT.ordinal()][s] += le;
+                    fl[SurfaceBlock.Flux.ANTHROPOGENIC.ordinal()][s] += qf;
+                }
             }
         }
 
@@ -369,57 +375,6 @@ public final class BalanceKernel {
     private static void substitute(double[] tj, double[] pj, double qj, double[] above, int ia, int ib) {
         for (int i = ia; i < ib; i++) {
             tj[i] = pj[i] + qj * above[i];
-        }
-    }
-
-    /**
-     * The net and gross surface flux of each cell of a chunk at its converged temperature, and the
-     * temperature it started the step from: one loop without branches across the chunk.
-     */
-    private static void surfaceTerms(SurfaceBlock block, SurfaceScratch sc, double[] t0Row, int c0, int len,
-            int first, double hc, double ta, double[] netOf, double[] grossOf, double[] t0Of) {
-        final double[] es = sc.es;
-        final double[] sw = sc.shortwave;
-        final double[] lwIn = sc.longwaveIn;
-        final double[] le = sc.latent;
-        final double[] tStart = sc.t[0];
-        final double[] qf = block.anthropogenicWm2;
-        final int r0 = c0 - first;
-        for (int i = 0; i < len; i++) {
-            final int s = c0 + i;
-            double t = t0Row[r0 + i];
-            double t2 = t * t;
-            double lwOut = es[i] * t2 * t2;
-            double h = hc * (t - ta);
-            t0Of[s] = tStart[i];
-            netOf[s] = sw[i] + lwIn[i] - lwOut - h - le[i] + qf[s];
-            grossOf[s] = Math.abs(sw[i]) + Math.abs(lwIn[i]) + Math.abs(lwOut) + Math.abs(h)
-                    + Math.abs(le[i]) + Math.abs(qf[s]);
-        }
-    }
-
-    /** Adds each surface flux of a chunk's cells at their converged temperatures to the block's flux sums. */
-    private static void recordSurfaceFluxes(SurfaceBlock block, SurfaceScratch sc, double[] t0Row, int c0,
-            int len, int first, double hc, double ta) {
-        final double[][] fl = block.flux;
-        final double[] netSw = fl[SurfaceBlock.Flux.NET_SHORTWAVE.ordinal()];
-        final double[] sky = fl[SurfaceBlock.Flux.ABSORBED_SKY_LONGWAVE.ordinal()];
-        final double[] emitted = fl[SurfaceBlock.Flux.EMITTED_LONGWAVE.ordinal()];
-        final double[] sensible = fl[SurfaceBlock.Flux.SENSIBLE.ordinal()];
-        final double[] latent = fl[SurfaceBlock.Flux.LATENT.ordinal()];
-        final double[] anthropogenic = fl[SurfaceBlock.Flux.ANTHROPOGENIC.ordinal()];
-        final double[] qf = block.anthropogenicWm2;
-        final int r0 = c0 - first;
-        for (int i = 0; i < len; i++) {
-            final int s = c0 + i;
-            double t = t0Row[r0 + i];
-            double t2 = t * t;
-            netSw[s] += sc.shortwave[i];
-            sky[s] += sc.longwaveIn[i];
-            emitted[s] += sc.es[i] * t2 * t2;
-            sensible[s] += hc * (t - ta);
-            latent[s] += sc.latent[i];
-            anthropogenic[s] += qf[s];
         }
     }
 

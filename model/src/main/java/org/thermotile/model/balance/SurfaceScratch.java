@@ -16,8 +16,6 @@ final class SurfaceScratch {
     final double[] bq = new double[CHUNK];
     final double[] shortwave = new double[CHUNK];
     final double[] longwaveIn = new double[CHUNK];
-    /** The latent flux of each cell at its converged temperature [W m⁻²]. */
-    final double[] latent = new double[CHUNK];
     /** t[k]: the iterate before iteration k (t[0] the temperature before the step) [K]. */
     final double[][] t = new double[LOCKSTEP + 1][CHUNK];
     /** d[k]: the Newton update of iteration k [K]. */
