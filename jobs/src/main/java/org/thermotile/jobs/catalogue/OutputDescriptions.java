@@ -39,7 +39,7 @@ public final class OutputDescriptions {
 
     /** The unit of a difference of statistic {@code key}: a difference of °C is a kelvin. */
     public static String differenceUnit(String key) {
-        String base = RunLayout.deltaOf(key) != null ? RunLayout.deltaOf(key) : key;
+        String base = java.util.Objects.requireNonNullElse(RunLayout.deltaOf(key), key);
         String u = statistic(base).unit();
         return u.equals("degC") ? "K" : u;
     }

@@ -18,6 +18,7 @@ import org.apache.parquet.io.RecordReader;
 import org.apache.parquet.schema.MessageType;
 import org.apache.parquet.schema.PrimitiveType;
 import org.apache.parquet.schema.Type;
+import org.thermotile.jobs.storage.TableColumns;
 
 /**
  * A small table read whole into memory: column names and rows of boxed values (String, Integer,
@@ -57,7 +58,7 @@ public final class Table {
      */
     public int require(String column, Path source) {
         int i = columns.indexOf(column);
-        String older = i < 0 ? org.thermotile.jobs.storage.TableColumns.olderLayout(source, column, columns) : null;
+        String older = i < 0 ? TableColumns.olderLayout(source, column, columns) : null;
         if (older != null) {
             throw new ReportException(older);
         }
