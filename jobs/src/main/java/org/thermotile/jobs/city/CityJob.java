@@ -28,7 +28,7 @@ import org.thermotile.jobs.storage.RunLock;
 import org.thermotile.model.stats.GroupHourStats;
 
 /**
- * The city job: one Spark task per tile, statistics back, maps and tables written, all of it
+ * The city job: one Spark task per tile (every variant in one pass), statistics back, maps and tables written, all of it
  * published by renaming a temporary sibling folder only when everything succeeded.
  */
 public final class CityJob {
@@ -335,43 +335,50 @@ public final class CityJob {
             console.println("resume: keeping " + reuse.size() + " complete partitions (" + String.join(", ", reuse)
                     + "), computing " + variants.size());
         }
-        // One task per (variant, tile); the list order fixes task numbers and so part-file names.
-        List<Work> work = new ArrayList<>();
-        for (ScenarioVariant v : variants) {
-            for (TileSpec t : tiles) {
-                work.add(new Work(v.name(), t));
-            }
-        }
+        // One task per tile, running every variant in one pass (TileTask.runVariants): the
+        // tile's rasters are read once and the cells a programme leaves alone are stepped once.
+        int nt = tiles.size();
+        List<String> names = variants.stream().map(ScenarioVariant::name).toList();
         ProgressListener progress = null;
         if (!opt.quiet()) {
-            double perTask = (double) p.cellHours() / Math.max(1, tiles.size());
-            progress = new ProgressListener(work.size(), perTask, console);
+            double perTask = (double) p.cellHours() * variants.size() / Math.max(1, nt);
+            progress = new ProgressListener(nt, perTask, console);
             spark.sparkContext().addSparkListener(progress);
             console.printf("simulating %d cells × %d hours in %d tiles%s%n", p.activeCells(),
-                    p.spec().forcing().hours() - 1, tiles.size(),
+                    p.spec().forcing().hours() - 1, nt,
                     variants.size() > 1 ? " × " + variants.size() + " variants (baseline and "
                             + (variants.size() - 1) + " scenarios)" : "");
         }
-        // One partition per (variant, tile), variants in plan order and tiles row-major inside:
-        // partition v·tiles + t. The results stay on the executors.
-        JavaRDD<TileOutput> results = jsc.parallelize(work, Math.max(1, work.size()))
-                .map(w -> {
+        // One partition per tile, holding the tile's outputs of every variant in plan order.
+        // (Nothing to run when a resume keeps every partition.)
+        List<TileSpec> toRun = variants.isEmpty() ? List.of() : tiles;
+        JavaRDD<List<TileOutput>> perTile = jsc.parallelize(toRun, Math.max(1, toRun.size()))
+                .map(tile -> {
                     ScenarioPlanner.Plan pl = planB.value();
-                    TileJobSpec sp = spec.value();
-                    ScenarioVariant v = pl.variants().stream().filter(x -> x.name().equals(w.variant()))
-                            .findFirst().orElseThrow();
-                    return TileTask.run(w.tile(), sp, v, pl.units(), pl.roofs());
+                    List<ScenarioVariant> vs = names.stream().map(n -> pl.variants().stream()
+                            .filter(x -> x.name().equals(n)).findFirst().orElseThrow()).toList();
+                    return TileTask.runVariants(tile, spec.value(), vs, pl.units(), pl.roofs());
                 })
                 .persist(StorageLevel.MEMORY_AND_DISK());
-        results.count();
+        perTile.count();
         if (progress != null) {
             spark.sparkContext().removeSparkListener(progress);
         }
+        // The outputs one partition per (variant, tile), variants in plan order and tiles
+        // row-major inside: partition v·tiles + t, as the maps and tables are read and named.
+        // A union of narrow views of the cached tiles: nothing is shuffled or recomputed.
+        List<JavaRDD<TileOutput>> byVariant = new ArrayList<>();
+        for (int vi = 0; vi < variants.size(); vi++) {
+            int v = vi;
+            byVariant.add(perTile.map(outs -> outs.get(v)));
+        }
+        @SuppressWarnings("unchecked")
+        JavaRDD<TileOutput> results = byVariant.isEmpty() ? jsc.parallelize(new ArrayList<TileOutput>(), 1)
+                : byVariant.size() == 1 ? byVariant.get(0) : jsc.union(byVariant.toArray(new JavaRDD[0]));
         double simSeconds = (System.nanoTime() - t0) / 1e9;
 
         // Small per-tile totals, merged on the driver in tile order (floating-point sums in a fixed
         // order), and maps streamed from tile rows fetched on demand: the driver never holds a grid.
-        int nt = tiles.size();
         int tilesPerRow = (p.grid().width() + p.run().tiling().tileSize() - 1) / p.run().tiling().tileSize();
         Files.createDirectories(lay.root().resolve("tables"));
         List<String> maps = new ArrayList<>();
@@ -411,7 +418,7 @@ public final class CityJob {
         if (p.hourlyEpochSeconds().length > 0) {
             TableOutputs.writeCellHours(spark, p, results, lay.table("cell_hours"));
         }
-        results.unpersist(false);
+        perTile.unpersist(false);
         for (String v : reuse) {
             Partitions.copy(oldLay, lay, v);
         }
@@ -445,10 +452,6 @@ public final class CityJob {
             }
         }
         return s;
-    }
-
-    /** One task: a variant (index into the plan) and a tile. */
-    record Work(String variant, TileSpec tile) implements java.io.Serializable {
     }
 
     /** Tiles whose totals are fetched in one Spark job (a tile's group-hour histograms are a few MB). */

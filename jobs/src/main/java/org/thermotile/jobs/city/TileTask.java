@@ -107,39 +107,76 @@ public final class TileTask {
      */
     public static TileOutput run(TileSpec tile, TileJobSpec spec, ScenarioVariant variant, int[] units,
             java.util.BitSet roofs) {
+        return runVariants(tile, spec, java.util.Collections.singletonList(variant), units, roofs).get(0);
+    }
+
+    /**
+     * Runs every variant of one tile in one pass ({@link TileSimulation#runVariants}): the tile's
+     * rasters read once, the first variant's cells all stepped, each other variant's only where
+     * its materials differ from the first's. Each output is, bit for bit, that of
+     * {@link #run} of its variant alone; {@link TileOutput#seconds} is the pass's time, split in
+     * proportion to the cell-hours each variant stepped.
+     *
+     * @param variants the variants in order (null entries: the baseline)
+     */
+    public static java.util.List<TileOutput> runVariants(TileSpec tile, TileJobSpec spec,
+            java.util.List<ScenarioVariant> variants, int[] units, java.util.BitSet roofs) {
         long t0 = System.nanoTime();
         Inputs in = inputs(tile, spec);
         int[] codes = in.codes();
-        int[] idx = in.materialIndex();
+        int[] base = in.materialIndex();
         TileSimulation.Geometry geom = in.geometry();
         int[] district = spec.districts().isEmpty() ? null : Districts.assign(spec.districts(), spec.grid(),
                 tile.col0(), tile.row0(), tile.width(), tile.height());
-        Material[] palette = spec.palette();
-        if (variant != null && !variant.isBaseline()) {
-            palette = variant.palette();
-            int w = spec.grid().width();
-            for (int i = 0; i < idx.length; i++) {
-                int base = idx[i];
-                if (base < 0) {
-                    continue;
-                }
-                int cell = (tile.row0() + i / tile.width()) * w + tile.col0() + i % tile.width();
-                int d = district == null ? -1 : district[i];
-                boolean roof = roofs.get(cell);
-                int cur = base;
-                for (ScenarioVariant.Change ch : variant.changes()) {
-                    if (ch.candidate(base, codes[i], d, roof)
-                            && Adoption.treated(Adoption.key(ch.seed(), units[cell]), ch.threshold(), ch.all())) {
-                        cur = ch.replacement()[cur];
-                    }
-                }
-                idx[i] = cur;
-            }
+        int nv = variants.size();
+        Material[][] palettes = new Material[nv][];
+        int[][] idx = new int[nv][];
+        for (int v = 0; v < nv; v++) {
+            ScenarioVariant variant = variants.get(v);
+            boolean baseline = variant == null || variant.isBaseline();
+            palettes[v] = baseline ? spec.palette() : variant.palette();
+            idx[v] = baseline ? base : treated(tile, spec, variant, codes, base, district, units, roofs);
         }
-        TileSimulation.Result res = TileSimulation.run(palette, idx, district, spec.districts().size(),
+        TileSimulation.Result[] res = TileSimulation.runVariants(palettes, idx, district, spec.districts().size(),
                 spec.forcing(), spec.settings(), geom);
-        return new TileOutput(variant == null ? "baseline" : variant.name(), tile, codes, idx, district, res,
-                (System.nanoTime() - t0) / 1e9);
+        double seconds = (System.nanoTime() - t0) / 1e9;
+        long stepped = 0;
+        for (TileSimulation.Result r : res) {
+            stepped += r.steppedCellHours;
+        }
+        java.util.List<TileOutput> out = new java.util.ArrayList<>(nv);
+        for (int v = 0; v < nv; v++) {
+            ScenarioVariant variant = variants.get(v);
+            double share = stepped == 0 ? 1.0 / nv : (double) res[v].steppedCellHours / stepped;
+            out.add(new TileOutput(variant == null ? "baseline" : variant.name(), tile, codes, idx[v], district,
+                    res[v], seconds * share));
+        }
+        return out;
+    }
+
+    /** A scenario's palette index per tile cell: the baseline's, changed where the scenario treats the cell. */
+    private static int[] treated(TileSpec tile, TileJobSpec spec, ScenarioVariant variant, int[] codes, int[] base,
+            int[] district, int[] units, java.util.BitSet roofs) {
+        int[] idx = base.clone();
+        int w = spec.grid().width();
+        for (int i = 0; i < idx.length; i++) {
+            int b = idx[i];
+            if (b < 0) {
+                continue;
+            }
+            int cell = (tile.row0() + i / tile.width()) * w + tile.col0() + i % tile.width();
+            int d = district == null ? -1 : district[i];
+            boolean roof = roofs.get(cell);
+            int cur = b;
+            for (ScenarioVariant.Change ch : variant.changes()) {
+                if (ch.candidate(b, codes[i], d, roof)
+                        && Adoption.treated(Adoption.key(ch.seed(), units[cell]), ch.threshold(), ch.all())) {
+                    cur = ch.replacement()[cur];
+                }
+            }
+            idx[i] = cur;
+        }
+        return idx;
     }
 
     /**

@@ -28,34 +28,53 @@ public final class BlockSimulation {
      * temperature, and runs every hour, telling {@code observer} after each.
      */
     public static void run(SurfaceBlock block, SubstepForcing sf, HourObserver observer) {
-        block.prepare(sf.dtSeconds);
-        block.initialise(sf.substeps > 0 ? initialSurfaceTemp(sf) : 0);
+        run(new SurfaceBlock[] {block}, sf, hour -> observer.afterHour(hour, block));
+    }
+
+    /**
+     * Runs several blocks through the same forcing side by side: each hour steps every block in
+     * turn, then tells {@code afterHour} (with the state at that forcing hour in every block).
+     * Cells are independent, so each block's bits are those of a run of its own.
+     */
+    public static void run(SurfaceBlock[] blocks, SubstepForcing sf, java.util.function.IntConsumer afterHour) {
+        for (SurfaceBlock block : blocks) {
+            block.prepare(sf.dtSeconds);
+            block.initialise(sf.substeps > 0 ? initialSurfaceTemp(sf) : 0);
+        }
         int n = sf.substepsPerHour;
         int hours = sf.substeps / n;
         for (int k = 1; k <= hours; k++) {
-            if (block.recordFluxes) {
-                for (double[] f : block.flux) {
-                    Arrays.fill(f, 0.0);
+            for (SurfaceBlock block : blocks) {
+                stepHour(block, sf, k);
+            }
+            afterHour.accept(k);
+        }
+    }
+
+    /** Hour {@code k} of one block: every sub-step, a cache-sized range of slots at a time. */
+    private static void stepHour(SurfaceBlock block, SubstepForcing sf, int k) {
+        int n = sf.substepsPerHour;
+        if (block.recordFluxes) {
+            for (double[] f : block.flux) {
+                Arrays.fill(f, 0.0);
+            }
+        }
+        int m0 = (k - 1) * n;
+        // Each range of slots goes through all the hour's sub-steps while its node rows
+        // (T and P, 16 B per cell and node) are still in cache.
+        for (int c0 = 0; c0 < block.cells; c0 += CHUNK_CELLS) {
+            int c1 = Math.min(block.cells, c0 + CHUNK_CELLS);
+            for (int s = 0; s < n; s++) {
+                BalanceKernel.step(block, sf, m0 + s, c0, c1);
+            }
+        }
+        if (block.recordFluxes) {
+            double inv = 1.0 / n;
+            for (double[] f : block.flux) {
+                for (int c = 0; c < f.length; c++) {
+                    f[c] *= inv;
                 }
             }
-            int m0 = (k - 1) * n;
-            // Each range of slots goes through all the hour's sub-steps while its node rows
-            // (T and P, 16 B per cell and node) are still in cache.
-            for (int c0 = 0; c0 < block.cells; c0 += CHUNK_CELLS) {
-                int c1 = Math.min(block.cells, c0 + CHUNK_CELLS);
-                for (int s = 0; s < n; s++) {
-                    BalanceKernel.step(block, sf, m0 + s, c0, c1);
-                }
-            }
-            if (block.recordFluxes) {
-                double inv = 1.0 / n;
-                for (double[] f : block.flux) {
-                    for (int c = 0; c < f.length; c++) {
-                        f[c] *= inv;
-                    }
-                }
-            }
-            observer.afterHour(k, block);
         }
     }
 

@@ -92,7 +92,7 @@ public final class TileSimulation {
 
     /** Per-cell statistics of a tile (°C, hours, K h), NaN where the cell has no material. */
     public static final class Result implements java.io.Serializable {
-        private static final long serialVersionUID = 1L;
+        private static final long serialVersionUID = 2L;
         public final int cells;
         public final double[] peakC;
         public final double[] meanC;
@@ -112,6 +112,11 @@ public final class TileSimulation {
         public final double maxClosureResidual;
         /** Cell-hours simulated (cells with a material × hours, spin-up included). */
         public final long cellHours;
+        /**
+         * Cell-hours this result's own pass stepped: {@link #cellHours} for a tile run alone; for
+         * a variant run beside a reference ({@link #runVariants}), only its changed cells'.
+         */
+        public final long steppedCellHours;
         /** Sky view factor per cell [–] (NaN where no material); null without geometry. */
         public final double[] skyViewFactor;
         /**
@@ -140,9 +145,10 @@ public final class TileSimulation {
             paletteCells = new long[palette];
             maxClosureResidual = 0;
             cellHours = 0;
+            steppedCellHours = 0;
         }
 
-        private Result(Result r, double closure, long cellHours) {
+        private Result(Result r, double closure, long cellHours, long steppedCellHours) {
             cells = r.cells;
             peakC = r.peakC;
             meanC = r.meanC;
@@ -156,6 +162,7 @@ public final class TileSimulation {
             paletteCells = r.paletteCells;
             maxClosureResidual = closure;
             this.cellHours = cellHours;
+            this.steppedCellHours = steppedCellHours;
             skyViewFactor = r.skyViewFactor;
             shadedHours = r.shadedHours;
         }
@@ -203,51 +210,82 @@ public final class TileSimulation {
      */
     public static Result run(Material[] palette, int[] materialIndex, int[] districtIndex, int districts,
             Forcing forcing, Settings s, Geometry geometry) {
-        int cells = materialIndex.length;
+        return runVariants(new Material[][] {palette}, new int[][] {materialIndex}, districtIndex, districts,
+                forcing, s, geometry)[0];
+    }
+
+    /**
+     * Runs several variants of one tile (the baseline and programmes that change some cells'
+     * materials) in one pass. Variant 0 is the reference: all its cells are stepped. Every other
+     * variant steps only its cells whose material differs from the reference's (or that have no
+     * material in the reference); its other cells take the reference's temperatures. Cells are
+     * independent and share the tile's geometry and forcing, so each variant's result is, bit for
+     * bit, that of {@link #run(Material[], int[], int[], int, Forcing, Settings, Geometry)} on it
+     * alone, at the cost of the reference plus the changed cells.
+     *
+     * @param palettes      per variant, its materials
+     * @param materialIndex per variant and cell, an index into that variant's palette or {@link #NO_MATERIAL}
+     * @return one result per variant, in order
+     */
+    public static Result[] runVariants(Material[][] palettes, int[][] materialIndex, int[] districtIndex,
+            int districts, Forcing forcing, Settings s, Geometry geometry) {
+        int variants = palettes.length;
+        if (variants == 0 || materialIndex.length != variants) {
+            throw new IllegalArgumentException(variants + " palettes for " + materialIndex.length
+                    + " material-index arrays: give one of each per variant, at least one");
+        }
+        int cells = materialIndex[0].length;
+        for (int[] idx : materialIndex) {
+            if (idx.length != cells) {
+                throw new IllegalArgumentException("variants of one tile with " + cells + " and " + idx.length
+                        + " cells: every variant covers the same cells");
+            }
+        }
         if (geometry != null && geometry.tileCols() * geometry.tileRows() != cells) {
             throw new IllegalArgumentException("geometry window interior of " + geometry.tileCols() + " × "
                     + geometry.tileRows() + " cells does not match the tile's " + cells + " cells");
         }
-        int count = 0;
-        for (int idx : materialIndex) {
-            if (idx != NO_MATERIAL) {
-                count++;
+        int sampled = Math.max(0, forcing.hours() - s.firstSampleHour());
+        Result[] out = new Result[variants];
+        for (int v = 0; v < variants; v++) {
+            out[v] = new Result(cells, s.hourlyOutputHours().length, palettes[v].length,
+                    districtIndex == null ? 0 : districts, sampled, geometry != null);
+        }
+        VariantCells vc = new VariantCells(palettes, materialIndex);
+        // The blocks that are stepped: the reference's, then each variant with changed cells.
+        SurfaceBlock[] blocks = new SurfaceBlock[vc.blocks];
+        CellStatistics[] stats = new CellStatistics[vc.blocks];
+        int[][] cellOf = new int[vc.blocks][];
+        for (int v = 0; v < variants; v++) {
+            int b = vc.blockOfVariant[v];
+            if (b < 0) {
+                continue;
+            }
+            int[] mine = vc.stepped[v];
+            cellOf[b] = mine;
+            SurfaceBlock.Builder builder = new SurfaceBlock.Builder(mine.length, false, s.columnSpacing());
+            for (int a = 0; a < mine.length; a++) {
+                builder.cell(a, palettes[v][materialIndex[v][mine[a]]], s.deepGroundK());
+            }
+            blocks[b] = builder.build();
+            stats[b] = new CellStatistics(mine.length, s.thresholdK());
+        }
+        for (int v = 0; v < variants; v++) {
+            for (int c : vc.active[v]) {
+                out[v].paletteCells[materialIndex[v][c]]++;
             }
         }
-        final int active = count;
-        int sampled = Math.max(0, forcing.hours() - s.firstSampleHour());
-        Result out = new Result(cells, s.hourlyOutputHours().length, palette.length,
-                districtIndex == null ? 0 : districts, sampled, geometry != null);
-        if (active == 0) {
+        if (blocks.length == 0) {
             return out;
         }
-        int[] cellOf = new int[active];
-        SurfaceBlock.Builder builder = new SurfaceBlock.Builder(active, false, s.columnSpacing());
-        for (int c = 0, a = 0; c < cells; c++) {
-            int idx = materialIndex[c];
-            if (idx != NO_MATERIAL) {
-                builder.cell(a, palette[idx], s.deepGroundK());
-                cellOf[a++] = c;
-                out.paletteCells[idx]++;
-            }
-        }
-        SurfaceBlock block = builder.build();
         SubstepForcing sf = SubstepForcing.of(forcing, s.substepMinutes(), s.convection());
-        CellStatistics st = new CellStatistics(active, s.thresholdK());
         int[] hourly = s.hourlyOutputHours();
-        int[] activeIdx = new int[active];
-        int[] activeDistrict = new int[active];
-        for (int a = 0; a < active; a++) {
-            activeIdx[a] = materialIndex[cellOf[a]];
-            activeDistrict[a] = districtIndex == null ? -1 : districtIndex[cellOf[a]];
-        }
-        TileShading shading = geometry == null ? null
-                : new TileShading(geometry, forcing, block, cellOf, out.skyViewFactor);
-        double[] shaded = geometry == null ? null : new double[active];
-        BlockSimulation.run(block, sf, (hour, b) -> {
+        TileShading shading = geometry == null ? null : new TileShading(geometry, forcing, blocks, cellOf);
+        double[] shaded = geometry == null ? null : new double[cells];
+        BlockSimulation.run(blocks, sf, hour -> {
             if (shading != null) {
-                // b holds the state at forcing hour `hour`; set the next hour's beam factors
-                // before BlockSimulation steps it, and count this hour's cast shadow.
+                // The blocks hold the state at forcing hour `hour`; set the next hour's beam
+                // factors before BlockSimulation steps it, and count this hour's cast shadow.
                 if (hour >= s.firstSampleHour()) {
                     shading.countShaded(hour, shaded);
                 }
@@ -256,70 +294,174 @@ public final class TileSimulation {
             if (hour < s.firstSampleHour()) {
                 return;
             }
-            st.sample(b, forcing.localHourOfDay(hour), forcing.isNight(hour));
-            int hi = hour - s.firstSampleHour();
-            GroupHourStats mh = out.materialHours;
-            GroupHourStats dh = out.districtHours;
-            for (int a = 0; a < active; a++) {
-                double tc = b.surfaceTempK(a) - Physical.ZERO_CELSIUS_K;
-                mh.add(activeIdx[a], hi, tc);
-                if (dh != null && activeDistrict[a] >= 0) {
-                    dh.add(activeDistrict[a], hi, tc);
-                }
+            int local = forcing.localHourOfDay(hour);
+            boolean night = forcing.isNight(hour);
+            for (int b = 0; b < blocks.length; b++) {
+                stats[b].sample(blocks[b], local, night);
             }
-            for (int i = 0; i < hourly.length; i++) {
-                if (hourly[i] == hour) {
-                    float[] dst = out.hourlyC[i];
-                    for (int a = 0; a < active; a++) {
-                        dst[cellOf[a]] = (float) (b.surfaceTempK(a) - Physical.ZERO_CELSIUS_K);
+            int hi = hour - s.firstSampleHour();
+            for (int v = 0; v < variants; v++) {
+                GroupHourStats mh = out[v].materialHours;
+                GroupHourStats dh = out[v].districtHours;
+                int[] idx = materialIndex[v];
+                int[] act = vc.active[v];
+                byte[] inOwn = vc.inOwnBlock[v];
+                int[] slot = vc.slotInBlock[v];
+                SurfaceBlock own = vc.blockOfVariant[v] < 0 ? null : blocks[vc.blockOfVariant[v]];
+                SurfaceBlock ref = blocks[0];
+                // Cells in ascending order, as a run of the variant alone adds them.
+                for (int c : act) {
+                    double tc = (inOwn[c] != 0 ? own : ref).surfaceTempK(slot[c]) - Physical.ZERO_CELSIUS_K;
+                    mh.add(idx[c], hi, tc);
+                    if (dh != null && districtIndex[c] >= 0) {
+                        dh.add(districtIndex[c], hi, tc);
+                    }
+                }
+                for (int i = 0; i < hourly.length; i++) {
+                    if (hourly[i] == hour) {
+                        float[] dst = out[v].hourlyC[i];
+                        for (int c : act) {
+                            dst[c] = (float) ((inOwn[c] != 0 ? own : ref).surfaceTempK(slot[c])
+                                    - Physical.ZERO_CELSIUS_K);
+                        }
                     }
                 }
             }
         });
-        double maxClosure = 0;
-        for (int a = 0; a < active; a++) {
-            int c = cellOf[a];
-            out.peakC[c] = st.peakK(a) - Physical.ZERO_CELSIUS_K;
-            out.meanC[c] = st.meanK(a) - Physical.ZERO_CELSIUS_K;
-            out.nightMinC[c] = st.nightMinK(a) - Physical.ZERO_CELSIUS_K;
-            out.peakHour[c] = st.peakLocalHour(a);
-            out.hoursAbove[c] = st.hoursAbove(a);
-            out.degreeHoursAbove[c] = st.degreeHoursAbove(a);
-            maxClosure = Math.max(maxClosure, Math.abs(block.closureResidualFraction(a)));
-            if (shaded != null) {
-                out.shadedHours[c] = shaded[a];
+        for (int v = 0; v < variants; v++) {
+            Result r = out[v];
+            double maxClosure = 0;
+            int b0 = vc.blockOfVariant[v];
+            for (int c : vc.active[v]) {
+                int b = vc.inOwnBlock[v][c] != 0 ? b0 : 0;
+                int a = vc.slotInBlock[v][c];
+                CellStatistics st = stats[b];
+                r.peakC[c] = st.peakK(a) - Physical.ZERO_CELSIUS_K;
+                r.meanC[c] = st.meanK(a) - Physical.ZERO_CELSIUS_K;
+                r.nightMinC[c] = st.nightMinK(a) - Physical.ZERO_CELSIUS_K;
+                r.peakHour[c] = st.peakLocalHour(a);
+                r.hoursAbove[c] = st.hoursAbove(a);
+                r.degreeHoursAbove[c] = st.degreeHoursAbove(a);
+                maxClosure = Math.max(maxClosure, Math.abs(blocks[b].closureResidualFraction(a)));
+                if (shaded != null) {
+                    r.shadedHours[c] = shaded[c];
+                    r.skyViewFactor[c] = shading.tileSvf[c];
+                }
             }
+            long hours = Math.max(0, forcing.hours() - 1);
+            out[v] = new Result(r, maxClosure, (long) vc.active[v].length * hours,
+                    (long) vc.stepped[v].length * hours);
         }
-        long cellHours = (long) active * Math.max(0, forcing.hours() - 1);
-        return new Result(out, maxClosure, cellHours);
+        return out;
+    }
+
+    /**
+     * Which cells each variant has and which it steps itself. The reference (variant 0) steps all
+     * its cells in block 0; variant v steps, in a block of its own, the cells whose material is
+     * not the reference's, and reads the others from block 0.
+     */
+    private static final class VariantCells {
+        /** Per variant, its cells with a material, ascending. */
+        final int[][] active;
+        /** Per variant, the cells it steps itself, ascending (all its cells for the reference). */
+        final int[][] stepped;
+        /** Per variant, its block, or −1 when it steps no cell of its own. */
+        final int[] blockOfVariant;
+        /** Per variant and cell: 1 if the variant's own block steps it, 0 if the reference's does. */
+        final byte[][] inOwnBlock;
+        /** Per variant and cell: its index in the block that steps it. */
+        final int[][] slotInBlock;
+        final int blocks;
+
+        VariantCells(Material[][] palettes, int[][] materialIndex) {
+            int variants = palettes.length;
+            int cells = materialIndex[0].length;
+            active = new int[variants][];
+            stepped = new int[variants][];
+            blockOfVariant = new int[variants];
+            inOwnBlock = new byte[variants][cells];
+            slotInBlock = new int[variants][cells];
+            int[] ref = materialIndex[0];
+            int nb = 0;
+            for (int v = 0; v < variants; v++) {
+                int[] idx = materialIndex[v];
+                // same[i][j]: entry i of this variant's palette is the reference's entry j.
+                boolean[][] same = new boolean[palettes[v].length][palettes[0].length];
+                for (int i = 0; i < same.length; i++) {
+                    for (int j = 0; j < same[i].length; j++) {
+                        same[i][j] = palettes[v][i].equals(palettes[0][j]);
+                    }
+                }
+                int nActive = 0;
+                int nOwn = 0;
+                for (int c = 0; c < cells; c++) {
+                    if (idx[c] == NO_MATERIAL) {
+                        continue;
+                    }
+                    nActive++;
+                    if (v == 0 || ref[c] == NO_MATERIAL || !same[idx[c]][ref[c]]) {
+                        inOwnBlock[v][c] = 1;
+                        nOwn++;
+                    }
+                }
+                active[v] = new int[nActive];
+                stepped[v] = new int[nOwn];
+                int a = 0;
+                int o = 0;
+                for (int c = 0; c < cells; c++) {
+                    if (idx[c] == NO_MATERIAL) {
+                        continue;
+                    }
+                    active[v][a++] = c;
+                    if (inOwnBlock[v][c] != 0) {
+                        slotInBlock[v][c] = o;
+                        stepped[v][o++] = c;
+                    }
+                }
+                blockOfVariant[v] = nOwn > 0 || v == 0 && nActive > 0 ? nb++ : -1;
+            }
+            // A variant's cells read from the reference sit at the reference's index of the cell.
+            int[] refSlot = slotInBlock[0];
+            for (int v = 1; v < variants; v++) {
+                for (int c : active[v]) {
+                    if (inOwnBlock[v][c] == 0) {
+                        slotInBlock[v][c] = refSlot[c];
+                    }
+                }
+            }
+            blocks = nb;
+        }
     }
 
     /**
      * A tile's geometry in the kernel's terms: sky view factors once, then per forcing hour the
-     * beam factors of the active cells (scratch allocated once per tile).
+     * beam factors of the tile's cells, handed to each block for its own cells (scratch allocated
+     * once per tile).
      */
     private static final class TileShading {
         private final Geometry g;
         private final Forcing forcing;
-        private final SurfaceBlock block;
-        private final int[] cellOf;
+        private final SurfaceBlock[] blocks;
+        private final int[][] cellOf;
         private final Shadows shadows;
-        private final double[] tileSvf;
-        private final double[] tileBeam;
+        final double[] tileSvf;
+        /** Beam factors of the tile's cells at the start and the end of the hour to be stepped. */
         private double[] start;
         private double[] end;
+        /** Per block, its cells' beam factors at the start and the end of that hour. */
+        private final double[][] blockStart;
+        private final double[][] blockEnd;
         private int endHour = -1;
 
-        TileShading(Geometry g, Forcing forcing, SurfaceBlock block, int[] cellOf, double[] svfOut) {
+        TileShading(Geometry g, Forcing forcing, SurfaceBlock[] blocks, int[][] cellOf) {
             this.g = g;
             this.forcing = forcing;
-            this.block = block;
+            this.blocks = blocks;
             this.cellOf = cellOf;
             SkyViewFactor svf = new SkyViewFactor(g.cellM(), g.searchRadiusM(), g.directions());
             int tc = g.tileCols();
             int tr = g.tileRows();
             tileSvf = new double[tc * tr];
-            tileBeam = new double[tc * tr];
             // Checks every height (naming its row and column) before the halo checks use them.
             svf.window(g.heightsM(), g.windowCols(), g.windowRows(), g.haloCells(), g.haloCells(), tc, tr, tileSvf);
             if (g.haloCells() < svf.haloCells()) {
@@ -343,21 +485,29 @@ public final class TileSimulation {
                         + tallest + " m with the sun down to " + g.minSunElevationDeg() + "°)");
             }
             shadows = new Shadows(g.cellM(), g.haloCells());
-            double[] activeSvf = new double[cellOf.length];
-            for (int a = 0; a < cellOf.length; a++) {
-                activeSvf[a] = tileSvf[cellOf[a]];
-                svfOut[cellOf[a]] = tileSvf[cellOf[a]];
+            blockStart = new double[blocks.length][];
+            blockEnd = new double[blocks.length][];
+            for (int b = 0; b < blocks.length; b++) {
+                blocks[b].useGeometry(gather(tileSvf, cellOf[b], new double[cellOf[b].length]), g.wallEmissivity());
+                blockStart[b] = new double[cellOf[b].length];
+                blockEnd[b] = new double[cellOf[b].length];
             }
-            block.useGeometry(activeSvf, g.wallEmissivity());
-            start = new double[cellOf.length];
-            end = new double[cellOf.length];
+            start = new double[tc * tr];
+            end = new double[tc * tr];
             if (forcing.hours() > 1) {
                 beamAt(0, end);
                 prepareHour(1);
             }
         }
 
-        /** Sets the block's beam factors for the hour ending at forcing hour {@code k}. */
+        private static double[] gather(double[] tile, int[] cells, double[] out) {
+            for (int a = 0; a < cells.length; a++) {
+                out[a] = tile[cells[a]];
+            }
+            return out;
+        }
+
+        /** Sets every block's beam factors for the hour ending at forcing hour {@code k}. */
         void prepareHour(int k) {
             if (k >= forcing.hours()) {
                 return;
@@ -376,34 +526,32 @@ public final class TileSimulation {
                 System.arraycopy(end, 0, start, 0, start.length);
             }
             endHour = k;
-            block.beamFactors(start, end);
+            for (int b = 0; b < blocks.length; b++) {
+                blocks[b].beamFactors(gather(start, cellOf[b], blockStart[b]), gather(end, cellOf[b], blockEnd[b]));
+            }
         }
 
-        /** Adds one to each active cell in a cast shadow at forcing hour {@code k} (the sun high enough). */
+        /** Adds one to each tile cell in a cast shadow at forcing hour {@code k} (the sun high enough). */
         void countShaded(int k, double[] shaded) {
             double elevation = 90.0 - forcing.sunZenithDeg[k];
             if (elevation < g.minSunElevationDeg()) {
                 return;
             }
-            double[] b = k == endHour ? end : null;
-            if (b == null) {
+            if (k != endHour) {
                 throw new IllegalStateException("beam factors of hour " + k + " are not at hand");
             }
-            for (int a = 0; a < shaded.length; a++) {
-                if (b[a] < 1.0) {
-                    shaded[a] += 1.0;
+            for (int c = 0; c < shaded.length; c++) {
+                if (end[c] < 1.0) {
+                    shaded[c] += 1.0;
                 }
             }
         }
 
-        private void beamAt(int k, double[] activeOut) {
+        private void beamAt(int k, double[] tileOut) {
             double elevation = 90.0 - forcing.sunZenithDeg[k];
             GeometryFactors.beamFactors(shadows, g.minSunElevationDeg(), g.heightsM(), g.treeHeightsM(),
                     g.canopyTransmissivity(), g.windowCols(), g.windowRows(), g.haloCells(), g.haloCells(),
-                    g.tileCols(), g.tileRows(), elevation, forcing.sunAzimuthDeg[k], tileSvf, tileBeam);
-            for (int a = 0; a < cellOf.length; a++) {
-                activeOut[a] = tileBeam[cellOf[a]];
-            }
+                    g.tileCols(), g.tileRows(), elevation, forcing.sunAzimuthDeg[k], tileSvf, tileOut);
         }
     }
 }
