@@ -14,9 +14,13 @@ import org.thermotile.model.constants.Physical;
 public final class Psychrometrics {
     private Psychrometrics() {}
 
-    private static final double MAGNUS_A_PA = 611.2;
-    private static final double MAGNUS_B = 17.62;
-    private static final double MAGNUS_C_K = 243.12;
+    /** Magnus coefficients (WMO-No. 8, 2018, Annex 4.B): e_w = A exp(B t / (C + t)), t in °C. */
+    public static final double MAGNUS_A_PA = 611.2;
+    public static final double MAGNUS_B = 17.62;
+    public static final double MAGNUS_C_K = 243.12;
+    /** The clamp of the Magnus form's temperature [°C]; outside it the slope is zero. */
+    public static final double MAGNUS_MIN_C = -60;
+    public static final double MAGNUS_MAX_C = 80;
 
     /** Saturation vapour pressure over water e_w [Pa] at temperature {@code tempK} [K]. WMO-No. 8 (2018) Annex 4.B. */
     public static double saturationVapourPressurePa(double tempK) {
@@ -39,7 +43,7 @@ public final class Psychrometrics {
      */
     public static double saturationVapourPressureSlopePaK(double tempK, double satVapourPa) {
         double t = tempK - Physical.ZERO_CELSIUS_K;
-        if (t < -60 || t > 80) {
+        if (t < MAGNUS_MIN_C || t > MAGNUS_MAX_C) {
             return 0.0;
         }
         double d = MAGNUS_C_K + t;
@@ -90,6 +94,6 @@ public final class Psychrometrics {
     }
 
     private static double clampCelsius(double t) {
-        return t < -60 ? -60 : (t > 80 ? 80 : t);
+        return t < MAGNUS_MIN_C ? MAGNUS_MIN_C : (t > MAGNUS_MAX_C ? MAGNUS_MAX_C : t);
     }
 }

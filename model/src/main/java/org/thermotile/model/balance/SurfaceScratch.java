@@ -23,4 +23,7 @@ final class SurfaceScratch {
     /** q_sat and its slope at t[k], iteration k (evaporating cells only). */
     final double[][] qs = new double[LOCKSTEP][CHUNK];
     final double[][] dqs = new double[LOCKSTEP][CHUNK];
+    /** Work rows of the evaporating Newton step: the Magnus exponent, then e_w; the slope factor. */
+    final double[] work0 = new double[CHUNK];
+    final double[] work1 = new double[CHUNK];
 }
