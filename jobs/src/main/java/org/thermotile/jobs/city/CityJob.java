@@ -37,8 +37,12 @@ public final class CityJob {
     /** The no-data value of every float map. */
     public static final float MAP_NODATA = -9999f;
 
-    /** What a finished run reports. */
-    public record Summary(Path outDir, long cells, long cellHours, double wallSeconds,
+    /**
+     * What a finished run reports: {@code cellHours} are the cell-hours of every variant (what the
+     * outputs cover), {@code steppedCellHours} the part the kernel stepped (the variants share the
+     * cells they leave unchanged, {@link TileTask#runVariants}).
+     */
+    public record Summary(Path outDir, long cells, long cellHours, long steppedCellHours, double wallSeconds,
             double cellHoursPerSecond, double maxClosureResidual, List<String> maps) {
     }
 
@@ -125,7 +129,8 @@ public final class CityJob {
                     deleteTree(out);
                 }
                 Files.move(tmp, out, StandardCopyOption.ATOMIC_MOVE);
-                return new Summary(out, s.cells(), s.cellHours(), s.wallSeconds(), s.cellHoursPerSecond(),
+                return new Summary(out, s.cells(), s.cellHours(), s.steppedCellHours(), s.wallSeconds(),
+                        s.cellHoursPerSecond(),
                         s.maxClosureResidual(), s.maps());
             } catch (IOException e) {
                 deleteQuietly(tmp);
@@ -264,7 +269,8 @@ public final class CityJob {
             }
             StacItem.writeAll(staging);
             OutputStore.publish(staging, partial, target);
-            return new Summary(opt.outDir(), s.cells(), s.cellHours(), s.wallSeconds(), s.cellHoursPerSecond(),
+            return new Summary(opt.outDir(), s.cells(), s.cellHours(), s.steppedCellHours(), s.wallSeconds(),
+                    s.cellHoursPerSecond(),
                     s.maxClosureResidual(), s.maps());
         } catch (IOException e) {
             OutputStore.delete(partial);
@@ -300,11 +306,13 @@ public final class CityJob {
                     System.nanoTime()));
         }
         long cellHours = each.stream().mapToLong(Summary::cellHours).sum();
+        long stepped = each.stream().mapToLong(Summary::steppedCellHours).sum();
         double maxClosure = each.stream().mapToDouble(Summary::maxClosureResidual).max().orElse(0);
         List<String> maps = each.stream().flatMap(x -> x.maps().stream()).toList();
         double wall = (System.nanoTime() - t0) / 1e9;
         double simSeconds = each.stream().mapToDouble(Summary::wallSeconds).sum();
-        Summary all = new Summary(tmp, each.get(0).cells(), cellHours, wall, cellHours / Math.max(simSeconds, 1e-9),
+        Summary all = new Summary(tmp, each.get(0).cells(), cellHours, stepped, wall,
+                cellHours / Math.max(simSeconds, 1e-9),
                 maxClosure, maps);
         Manifest.writePeriods(periods, each, all, tmp.resolve("manifest.json"));
         if (periods.get(0).plan().variants().size() > 1) {
@@ -387,6 +395,8 @@ public final class CityJob {
         // Largest closure residual per variant: computed now, or as recorded for a kept partition.
         Map<String, Double> closure = new java.util.HashMap<>(Partitions.closureResiduals(oldLay, reuse));
         long cellHours = 0;
+        long stepped = 0;
+        double tileSeconds = 0;
         for (int vi = 0; vi < variants.size(); vi++) {
             ScenarioVariant v = variants.get(vi);
             int base = vi * nt;
@@ -399,6 +409,8 @@ public final class CityJob {
                     dh = merge(dh, t.districtHours());
                     vmax = Math.max(vmax, t.maxClosureResidual());
                     cellHours += t.cellHours();
+                    stepped += t.steppedCellHours();
+                    tileSeconds += t.seconds();
                 }
             }
             closure.put(v.name(), vmax);
@@ -434,10 +446,11 @@ public final class CityJob {
 
         double wall = (System.nanoTime() - t0) / 1e9;
         double maxClosure = closure.values().stream().mapToDouble(Double::doubleValue).max().orElse(0);
-        Summary s = new Summary(lay.root(), p.activeCells(), cellHours, wall, cellHours / Math.max(simSeconds, 1e-9),
+        Summary s = new Summary(lay.root(), p.activeCells(), cellHours, stepped, wall,
+                cellHours / Math.max(simSeconds, 1e-9),
                 maxClosure, maps);
         Files.createDirectories(lay.dir());
-        Manifest.write(p, s, simSeconds, Partitions.record(lay, keys, closure), reuse, lay.dir().resolve("manifest.json"));
+        Manifest.write(p, s, simSeconds, tileSeconds, Partitions.record(lay, keys, closure), reuse, lay.dir().resolve("manifest.json"));
         if (plan.variants().size() > 1) {
             Comparison.write(spark, lay.dir());
         }
@@ -459,10 +472,10 @@ public final class CityJob {
 
     /** What the driver keeps of a tile besides its maps: group-hour statistics and two totals. */
     record TileTotals(GroupHourStats materialHours, GroupHourStats districtHours, double maxClosureResidual,
-            long cellHours) implements java.io.Serializable {
+            long cellHours, long steppedCellHours, double seconds) implements java.io.Serializable {
         static TileTotals of(TileOutput o) {
             return new TileTotals(o.result().materialHours, o.result().districtHours,
-                    o.result().maxClosureResidual, o.result().cellHours);
+                    o.result().maxClosureResidual, o.result().cellHours, o.result().steppedCellHours, o.seconds());
         }
     }
 

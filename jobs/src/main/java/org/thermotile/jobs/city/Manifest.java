@@ -19,8 +19,8 @@ import java.util.Map;
 final class Manifest {
     private Manifest() {}
 
-    static void write(PreparedRun p, CityJob.Summary s, double simulateSeconds, ObjectNode partitions,
-            java.util.List<String> reused, Path file) throws IOException {
+    static void write(PreparedRun p, CityJob.Summary s, double simulateSeconds, double tileSeconds,
+            ObjectNode partitions, java.util.List<String> reused, Path file) throws IOException {
         ObjectMapper om = new ObjectMapper().enable(SerializationFeature.INDENT_OUTPUT);
         ObjectNode root = om.createObjectNode();
         root.put("format", "thermotile-run-manifest/1");
@@ -94,8 +94,12 @@ final class Manifest {
         ObjectNode timing = root.putObject("timing");
         timing.put("wall_seconds", round(s.wallSeconds()));
         timing.put("simulate_seconds", round(simulateSeconds));
+        // Σ over tiles of each task's time in its tile pass (read, map, step, gather): over
+        // (cores × wall_seconds), the share of the run's cores the simulation itself used.
+        timing.put("tile_pass_seconds", round(tileSeconds));
         timing.put("cell_hours_per_second", Math.round(s.cellHoursPerSecond()));
         timing.put("computed_cell_hours", s.cellHours());
+        timing.put("stepped_cell_hours", s.steppedCellHours());
         var kept = timing.putArray("resumed_partitions");
         reused.forEach(kept::add);
         root.put("caution", CAUTION);
@@ -154,6 +158,7 @@ final class Manifest {
         ObjectNode timing = root.putObject("timing");
         timing.put("wall_seconds", round(all.wallSeconds()));
         timing.put("computed_cell_hours", all.cellHours());
+        timing.put("stepped_cell_hours", all.steppedCellHours());
         root.put("caution", CAUTION);
         Files.writeString(file, om.writeValueAsString(root) + "\n");
     }

@@ -92,8 +92,11 @@ final class RunCommand implements Callable<Integer> {
             s = runObserved(run, periods, options, console);
         }
         String where = CityJob.remoteOutput(s.outDir()) != null ? CityJob.remoteOutput(s.outDir()) : s.outDir().toString();
-        console.printf(Locale.ROOT, "done: %d cells, %.3g cell-hours in %.1f s (%.3g cell-hours/s), "
-                        + "largest closure residual %.1e%n", s.cells(), (double) s.cellHours(), s.wallSeconds(),
+        String stepped = s.steppedCellHours() < s.cellHours()
+                ? String.format(Locale.ROOT, " (%.3g stepped, the scenarios sharing unchanged cells)", (double) s.steppedCellHours())
+                : "";
+        console.printf(Locale.ROOT, "done: %d cells, %.3g cell-hours%s in %.1f s (%.3g cell-hours/s), "
+                        + "largest closure residual %.1e%n", s.cells(), (double) s.cellHours(), stepped, s.wallSeconds(),
                 s.cellHoursPerSecond(), s.maxClosureResidual());
         console.println("outputs: " + where);
         if (run.hasPeriods()) {

@@ -228,7 +228,18 @@ class ScenarioTest {
         assertEquals(List.of("baseline", "zero-adoption", "same-values", "cool-dark-roofs", "west-only"),
                 java.util.stream.StreamSupport.stream(timing.path("resumed_partitions").spliterator(), false)
                         .map(com.fasterxml.jackson.databind.JsonNode::asText).toList());
-        assertEquals(RunPreparer.prepare(RunFileReader.read(rf)).cellHours(), timing.path("computed_cell_hours").asLong());
+        long perVariant = RunPreparer.prepare(RunFileReader.read(rf)).cellHours();
+        assertEquals(perVariant, timing.path("computed_cell_hours").asLong());
+        // The one variant computed in the resumed run is the pass's reference: all its cells stepped.
+        assertEquals(perVariant, timing.path("stepped_cell_hours").asLong());
+        // The full run stepped the baseline whole and each programme's changed cells only (zero
+        // adoption and the same values change none), so fewer cell-hours than its outputs cover.
+        var full = new com.fasterxml.jackson.databind.ObjectMapper().readTree(out.resolve("manifest.json").toFile())
+                .path("timing");
+        long stepped = full.path("stepped_cell_hours").asLong();
+        assertTrue(stepped > perVariant && stepped < 2 * perVariant && stepped < full.path("computed_cell_hours").asLong(),
+                stepped + " stepped of " + full.path("computed_cell_hours").asLong());
+        assertTrue(full.path("tile_pass_seconds").asDouble() > 0, "the tile passes' time is recorded");
     }
 
     static void copyTree(Path from, Path to) throws Exception {
