@@ -44,11 +44,7 @@ class NodeMajorLayoutTest {
         Forcing f = TestForcings.of(49, h -> 295 + 8 * Math.sin(2 * Math.PI * (h - 9) / 24.0),
                 h -> Math.max(0, 850 * Math.sin(Math.PI * ((h % 24) - 6) / 12.0)), h -> 360, 0.45, 2.0);
         SubstepForcing sf = SubstepForcing.of(f, 10, Convection.mcAdams());
-        block.prepare(sf.dtSeconds);
-        block.initialise(296.0);
-        CellMajorKernel ref = new CellMajorKernel(block);
-        ref.prepare(sf.dtSeconds);
-        ref.initialise(296.0);
+        CellMajorKernel ref = startBoth(block, sf, 296.0);
         double[] start = new double[cells];
         double[] end = new double[cells];
         int n = sf.substepsPerHour;
@@ -94,11 +90,7 @@ class NodeMajorLayoutTest {
         Forcing f = TestForcings.of(31 * 24 + 1, h -> 297 + 7 * Math.sin(2 * Math.PI * (h - 9) / 24.0),
                 h -> Math.max(0, 880 * Math.sin(Math.PI * ((h % 24) - 6) / 12.0)), h -> 350, 0.5, 1.5);
         SubstepForcing sf = SubstepForcing.of(f, 10, Convection.mcAdams());
-        block.prepare(sf.dtSeconds);
-        block.initialise(297.0);
-        CellMajorKernel ref = new CellMajorKernel(block);
-        ref.prepare(sf.dtSeconds);
-        ref.initialise(297.0);
+        CellMajorKernel ref = startBoth(block, sf, 297.0);
         int n = sf.substepsPerHour;
         double worst = 0;
         int evaporating = 0;
@@ -126,6 +118,16 @@ class NodeMajorLayoutTest {
         }
         assertTrue(worst <= 1e-9, "evaporating cells' surface within 1e-9 K every hour: " + worst);
         assertTrue(compare(block, ref, cells) <= 1e-9);
+    }
+
+    /** Prepares and initialises {@code block} and a cell-major reference copy of it alike. */
+    private static CellMajorKernel startBoth(SurfaceBlock block, SubstepForcing sf, double startK) {
+        block.prepare(sf.dtSeconds);
+        block.initialise(startK);
+        CellMajorKernel ref = new CellMajorKernel(block);
+        ref.prepare(sf.dtSeconds);
+        ref.initialise(startK);
+        return ref;
     }
 
     /**

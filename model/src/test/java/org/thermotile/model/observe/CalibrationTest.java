@@ -4,7 +4,6 @@ import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertFalse;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
-import java.time.LocalDate;
 import java.util.List;
 import java.util.Random;
 import org.junit.jupiter.api.BeforeAll;
@@ -12,9 +11,7 @@ import org.junit.jupiter.api.Test;
 import org.thermotile.model.balance.Convection;
 import org.thermotile.model.constants.Physical;
 import org.thermotile.model.forcing.Forcing;
-import org.thermotile.model.forcing.ForcingPreparer;
-import org.thermotile.model.forcing.Site;
-import org.thermotile.model.forcing.SyntheticWeather;
+import org.thermotile.model.forcing.TestWeather;
 import org.thermotile.model.materials.Material;
 import org.thermotile.model.materials.MaterialLibrary;
 import org.thermotile.model.materials.MaterialOverrides;
@@ -39,10 +36,7 @@ class CalibrationTest {
     /** Two clear July days at 45° N (invented site); the second day is observed. */
     @BeforeAll
     static void weather() {
-        Site site = new Site(45.3, 9.9, 100);
-        forcing = ForcingPreparer.prepare(SyntheticWeather.clearSky(site,
-                SyntheticWeather.Spec.withRelativeHumidity(LocalDate.of(2026, 7, 13), 2, 7200, 20, 34, 0.45, 2.0)),
-                site);
+        forcing = TestWeather.clearJuly(2);
         settings = new TileSimulation.Settings(10, Convection.mcAdams(), Physical.ZERO_CELSIUS_K + 24, 24,
                 Physical.ZERO_CELSIUS_K + 45, new int[0]);
         day13 = -1;

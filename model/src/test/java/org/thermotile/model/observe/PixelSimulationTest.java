@@ -5,16 +5,13 @@ import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
-import java.time.LocalDate;
 import java.util.List;
 import org.junit.jupiter.api.BeforeAll;
 import org.junit.jupiter.api.Test;
 import org.thermotile.model.balance.Convection;
 import org.thermotile.model.constants.Physical;
 import org.thermotile.model.forcing.Forcing;
-import org.thermotile.model.forcing.ForcingPreparer;
-import org.thermotile.model.forcing.Site;
-import org.thermotile.model.forcing.SyntheticWeather;
+import org.thermotile.model.forcing.TestWeather;
 import org.thermotile.model.geometry.GeometryFactors;
 import org.thermotile.model.geometry.Shadows;
 import org.thermotile.model.geometry.SkyViewFactor;
@@ -33,10 +30,7 @@ class PixelSimulationTest {
 
     @BeforeAll
     static void weather() {
-        Site site = new Site(45.3, 9.9, 100);
-        forcing = ForcingPreparer.prepare(SyntheticWeather.clearSky(site,
-                SyntheticWeather.Spec.withRelativeHumidity(LocalDate.of(2026, 7, 13), 3, 7200, 20, 34, 0.45, 2.0)),
-                site);
+        forcing = TestWeather.clearJuly(3);
         settings = new TileSimulation.Settings(10, Convection.mcAdams(), Physical.ZERO_CELSIUS_K + 24, 24,
                 Physical.ZERO_CELSIUS_K + 45, new int[0]);
         for (int h = 24; h < forcing.hours(); h++) {

@@ -9,16 +9,13 @@ import java.io.ByteArrayOutputStream;
 import java.io.IOException;
 import java.io.ObjectOutputStream;
 import java.io.UncheckedIOException;
-import java.time.LocalDate;
 import java.util.SplittableRandom;
 import org.junit.jupiter.api.BeforeAll;
 import org.junit.jupiter.api.Test;
 import org.thermotile.model.balance.Convection;
 import org.thermotile.model.constants.Physical;
 import org.thermotile.model.forcing.Forcing;
-import org.thermotile.model.forcing.ForcingPreparer;
-import org.thermotile.model.forcing.Site;
-import org.thermotile.model.forcing.SyntheticWeather;
+import org.thermotile.model.forcing.TestWeather;
 import org.thermotile.model.geometry.GeometryFactors;
 import org.thermotile.model.geometry.SkyViewFactor;
 import org.thermotile.model.materials.Material;
@@ -41,10 +38,7 @@ class VariantPassTest {
     /** Two clear July days at 45° N (invented site), statistics over the second, two hourly maps. */
     @BeforeAll
     static void weather() {
-        Site site = new Site(45.3, 9.9, 100);
-        forcing = ForcingPreparer.prepare(SyntheticWeather.clearSky(site,
-                SyntheticWeather.Spec.withRelativeHumidity(LocalDate.of(2026, 7, 13), 2, 7200, 20, 34, 0.45, 2.0)),
-                site);
+        forcing = TestWeather.clearJuly(2);
         settings = new TileSimulation.Settings(10, Convection.mcAdams(), Physical.ZERO_CELSIUS_K + 24, 24,
                 Physical.ZERO_CELSIUS_K + 45, new int[] {30, 38});
     }
