@@ -356,6 +356,14 @@ public final class CityJob {
                     p.spec().forcing().hours() - 1, nt,
                     variants.size() > 1 ? " × " + variants.size() + " variants (baseline and "
                             + (variants.size() - 1) + " scenarios)" : "");
+            int cores = spark.sparkContext().defaultParallelism();
+            if (nt < cores && !variants.isEmpty()) {
+                int idle = cores - nt;
+                console.printf("  %d tile%s for %d cores: a task runs one tile with every scenario, so %d of the "
+                        + "cores %s idle; a smaller tiling.tile_size (now %d) would keep every core busy (the values do not "
+                        + "change)%n", nt, nt == 1 ? "" : "s", cores, idle, idle == 1 ? "is" : "are",
+                        p.run().tiling().tileSize());
+            }
         }
         // One partition per tile, holding the tile's outputs of every variant in plan order.
         // (Nothing to run when a resume keeps every partition.)
