@@ -28,8 +28,9 @@ import org.thermotile.jobs.storage.RunLock;
 import org.thermotile.model.stats.GroupHourStats;
 
 /**
- * The city job: one Spark task per tile (every variant in one pass), statistics back, maps and tables written, all of it
- * published by renaming a temporary sibling folder only when everything succeeded.
+ * The city job: one Spark task per tile (every variant in one pass), statistics back, maps and
+ * tables written, all of it published by renaming a temporary sibling folder only when
+ * everything succeeded.
  */
 public final class CityJob {
     private CityJob() {}
