@@ -131,8 +131,7 @@ public final class CityJob {
                 }
                 Files.move(tmp, out, StandardCopyOption.ATOMIC_MOVE);
                 return new Summary(out, s.cells(), s.cellHours(), s.steppedCellHours(), s.wallSeconds(),
-                        s.cellHoursPerSecond(),
-                        s.maxClosureResidual(), s.maps());
+                        s.cellHoursPerSecond(), s.maxClosureResidual(), s.maps());
             } catch (IOException e) {
                 deleteQuietly(tmp);
                 UserInputException disk = Diagnose.ofOutput(e, out);
@@ -271,8 +270,7 @@ public final class CityJob {
             StacItem.writeAll(staging);
             OutputStore.publish(staging, partial, target);
             return new Summary(opt.outDir(), s.cells(), s.cellHours(), s.steppedCellHours(), s.wallSeconds(),
-                    s.cellHoursPerSecond(),
-                    s.maxClosureResidual(), s.maps());
+                    s.cellHoursPerSecond(), s.maxClosureResidual(), s.maps());
         } catch (IOException e) {
             OutputStore.delete(partial);
             throw new UncheckedIOException(e);
@@ -313,8 +311,7 @@ public final class CityJob {
         double wall = (System.nanoTime() - t0) / 1e9;
         double simSeconds = each.stream().mapToDouble(Summary::wallSeconds).sum();
         Summary all = new Summary(tmp, each.get(0).cells(), cellHours, stepped, wall,
-                cellHours / Math.max(simSeconds, 1e-9),
-                maxClosure, maps);
+                cellHours / Math.max(simSeconds, 1e-9), maxClosure, maps);
         Manifest.writePeriods(periods, each, all, tmp.resolve("manifest.json"));
         if (periods.get(0).plan().variants().size() > 1) {
             Comparison.writeAcrossPeriods(spark, tmp, periods.stream().map(PreparedRun::period).toList());
@@ -346,8 +343,9 @@ public final class CityJob {
         }
         // One task per tile, running every variant in one pass (TileTask.runVariants): the
         // tile's rasters are read once and the cells a programme leaves alone are stepped once.
-        // With fewer tiles than cores the variants are split into groups, a task per tile and
-        // group, so that the cores are used; each group steps its first variant whole.
+        // With fewer tiles than cores and enough variants (variantGroups) they are split into
+        // groups, a task per tile and group, so that the cores are used; each group steps its
+        // first variant whole.
         int nt = tiles.size();
         int cores = spark.sparkContext().defaultParallelism();
         List<List<String>> groups = variantGroups(variants.stream().map(ScenarioVariant::name).toList(), nt, cores);
@@ -463,8 +461,7 @@ public final class CityJob {
         double wall = (System.nanoTime() - t0) / 1e9;
         double maxClosure = closure.values().stream().mapToDouble(Double::doubleValue).max().orElse(0);
         Summary s = new Summary(lay.root(), p.activeCells(), cellHours, stepped, wall,
-                cellHours / Math.max(simSeconds, 1e-9),
-                maxClosure, maps);
+                cellHours / Math.max(simSeconds, 1e-9), maxClosure, maps);
         Files.createDirectories(lay.dir());
         Manifest.write(p, s, simSeconds, tileSeconds, Partitions.record(lay, keys, closure), reuse, lay.dir().resolve("manifest.json"));
         if (plan.variants().size() > 1) {

@@ -410,14 +410,10 @@ public final class BalanceKernel {
         }
     }
 
-    // The Magnus form in the lockstep loop (Psychrometrics' coefficients and clamp).
-    private static final double MAGNUS_A = Psychrometrics.MAGNUS_A_PA;
-    private static final double MAGNUS_B = Psychrometrics.MAGNUS_B;
-    private static final double MAGNUS_C = Psychrometrics.MAGNUS_C_K;
-    private static final double MAGNUS_BC = MAGNUS_B * MAGNUS_C;
+    // Derived from Psychrometrics' Magnus coefficients and clamp, for the lockstep loop.
+    private static final double MAGNUS_BC = Psychrometrics.MAGNUS_B * Psychrometrics.MAGNUS_C_K;
     private static final double MAGNUS_MID_C = 0.5 * (Psychrometrics.MAGNUS_MIN_C + Psychrometrics.MAGNUS_MAX_C);
     private static final double MAGNUS_HALF_C = 0.5 * (Psychrometrics.MAGNUS_MAX_C - Psychrometrics.MAGNUS_MIN_C);
-    private static final double ZERO_C_K = Physical.ZERO_CELSIUS_K;
 
     /**
      * Newton iteration {@code k} for a chunk where some cells evaporate: q_sat linearised at
@@ -429,9 +425,9 @@ public final class BalanceKernel {
      * instructions (one loop doing all of it stays scalar, and a call to {@link Math#exp} keeps any
      * loop scalar): e^x by {@link SeriesExp} (within 4e-15 of {@link Math#exp}), the clamp by
      * min/max, the zero slope outside the clamp by a 0/1 factor, and three divisions where the
-     * scalar form has five. The
-     * iterates of evaporating cells therefore differ from the scalar form's in the last bits; the
-     * accuracy guard ({@code NodeMajorLayoutTest}) holds them within 1e-9 K of it.
+     * scalar form has five. The iterates of evaporating cells therefore differ from the scalar
+     * form's in the last bits; the accuracy guard ({@code NodeMajorLayoutTest}) holds them within
+     * 1e-9 K of it.
      */
     private static void newtonEvaporating(SurfaceScratch sc, int k, int len, double a0, double p) {
         final double[] tin = sc.t[k];
@@ -439,7 +435,7 @@ public final class BalanceKernel {
         final double[] slope = sc.work1;
         magnusExponent(tin, x, slope, len);
         for (int i = 0; i < len; i++) {
-            x[i] = MAGNUS_A * SeriesExp.exp(x[i]);
+            x[i] = Psychrometrics.MAGNUS_A_PA * SeriesExp.exp(x[i]);
         }
         saturationHumidity(x, slope, sc.qs[k], sc.dqs[k], p, len);
         newtonUpdate(tin, sc.t[k + 1], sc.d[k], sc.qs[k], sc.dqs[k], sc.es, sc.bq, sc.rhs, a0, len);
@@ -451,10 +447,10 @@ public final class BalanceKernel {
      */
     private static void magnusExponent(double[] tempK, double[] x, double[] slope, int len) {
         for (int i = 0; i < len; i++) {
-            double tc = tempK[i] - ZERO_C_K;
+            double tc = tempK[i] - Physical.ZERO_CELSIUS_K;
             double tcl = Math.min(Math.max(tc, Psychrometrics.MAGNUS_MIN_C), Psychrometrics.MAGNUS_MAX_C);
-            double invC = 1.0 / (MAGNUS_C + tcl);
-            x[i] = MAGNUS_B * tcl * invC;
+            double invC = 1.0 / (Psychrometrics.MAGNUS_C_K + tcl);
+            x[i] = Psychrometrics.MAGNUS_B * tcl * invC;
             // 1 inside the clamp (edges included), 0 outside: (half − |tc − mid|) is ≥ 0 inside.
             double inside = Math.max(0.0, Math.min(1.0, (MAGNUS_HALF_C - Math.abs(tc - MAGNUS_MID_C)) * 1e300 + 1.0));
             slope[i] = MAGNUS_BC * invC * invC * inside;

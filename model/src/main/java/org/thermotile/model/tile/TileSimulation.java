@@ -305,13 +305,11 @@ public final class TileSimulation {
                 GroupHourStats dh = out[v].districtHours;
                 int[] idx = materialIndex[v];
                 int[] act = vc.active[v];
-                byte[] inOwn = vc.inOwnBlock[v];
+                int[] block = vc.blockOfCell[v];
                 int[] slot = vc.slotInBlock[v];
-                SurfaceBlock own = vc.blockOfVariant[v] < 0 ? null : blocks[vc.blockOfVariant[v]];
-                SurfaceBlock ref = blocks[0];
                 // Cells in ascending order, as a run of the variant alone adds them.
                 for (int c : act) {
-                    double tc = (inOwn[c] != 0 ? own : ref).surfaceTempK(slot[c]) - Physical.ZERO_CELSIUS_K;
+                    double tc = blocks[block[c]].surfaceTempK(slot[c]) - Physical.ZERO_CELSIUS_K;
                     mh.add(idx[c], hi, tc);
                     if (dh != null && districtIndex[c] >= 0) {
                         dh.add(districtIndex[c], hi, tc);
@@ -321,8 +319,7 @@ public final class TileSimulation {
                     if (hourly[i] == hour) {
                         float[] dst = out[v].hourlyC[i];
                         for (int c : act) {
-                            dst[c] = (float) ((inOwn[c] != 0 ? own : ref).surfaceTempK(slot[c])
-                                    - Physical.ZERO_CELSIUS_K);
+                            dst[c] = (float) (blocks[block[c]].surfaceTempK(slot[c]) - Physical.ZERO_CELSIUS_K);
                         }
                     }
                 }
@@ -331,9 +328,8 @@ public final class TileSimulation {
         for (int v = 0; v < variants; v++) {
             Result r = out[v];
             double maxClosure = 0;
-            int b0 = vc.blockOfVariant[v];
             for (int c : vc.active[v]) {
-                int b = vc.inOwnBlock[v][c] != 0 ? b0 : 0;
+                int b = vc.blockOfCell[v][c];
                 int a = vc.slotInBlock[v][c];
                 CellStatistics st = stats[b];
                 r.peakC[c] = st.peakK(a) - Physical.ZERO_CELSIUS_K;
@@ -367,8 +363,8 @@ public final class TileSimulation {
         final int[][] stepped;
         /** Per variant, its block, or −1 when it steps no cell of its own. */
         final int[] blockOfVariant;
-        /** Per variant and cell: 1 if the variant's own block steps it, 0 if the reference's does. */
-        final byte[][] inOwnBlock;
+        /** Per variant and cell: the block that steps it (the variant's own, or the reference's 0). */
+        final int[][] blockOfCell;
         /** Per variant and cell: its index in the block that steps it. */
         final int[][] slotInBlock;
         final int blocks;
@@ -379,7 +375,7 @@ public final class TileSimulation {
             active = new int[variants][];
             stepped = new int[variants][];
             blockOfVariant = new int[variants];
-            inOwnBlock = new byte[variants][cells];
+            blockOfCell = new int[variants][cells];
             slotInBlock = new int[variants][cells];
             int[] ref = materialIndex[0];
             int nb = 0;
@@ -392,6 +388,7 @@ public final class TileSimulation {
                         same[i][j] = palettes[v][i].equals(palettes[0][j]);
                     }
                 }
+                boolean[] own = new boolean[cells];
                 int nActive = 0;
                 int nOwn = 0;
                 for (int c = 0; c < cells; c++) {
@@ -399,11 +396,10 @@ public final class TileSimulation {
                         continue;
                     }
                     nActive++;
-                    if (v == 0 || ref[c] == NO_MATERIAL || !same[idx[c]][ref[c]]) {
-                        inOwnBlock[v][c] = 1;
-                        nOwn++;
-                    }
+                    own[c] = v == 0 || ref[c] == NO_MATERIAL || !same[idx[c]][ref[c]];
+                    nOwn += own[c] ? 1 : 0;
                 }
+                blockOfVariant[v] = nOwn > 0 ? nb++ : -1;
                 active[v] = new int[nActive];
                 stepped[v] = new int[nOwn];
                 int a = 0;
@@ -413,19 +409,14 @@ public final class TileSimulation {
                         continue;
                     }
                     active[v][a++] = c;
-                    if (inOwnBlock[v][c] != 0) {
+                    if (own[c]) {
+                        blockOfCell[v][c] = blockOfVariant[v];
                         slotInBlock[v][c] = o;
                         stepped[v][o++] = c;
-                    }
-                }
-                blockOfVariant[v] = nOwn > 0 || v == 0 && nActive > 0 ? nb++ : -1;
-            }
-            // A variant's cells read from the reference sit at the reference's index of the cell.
-            int[] refSlot = slotInBlock[0];
-            for (int v = 1; v < variants; v++) {
-                for (int c : active[v]) {
-                    if (inOwnBlock[v][c] == 0) {
-                        slotInBlock[v][c] = refSlot[c];
+                    } else {
+                        // Read from the reference (block 0), at the reference's index of the cell.
+                        blockOfCell[v][c] = 0;
+                        slotInBlock[v][c] = slotInBlock[0][c];
                     }
                 }
             }
